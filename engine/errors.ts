@@ -1,0 +1,26 @@
+/**
+ * Bad input: one error class with a stable code and a message of the shape
+ * "what, where, got, what to do". The CLI maps it to exit code 2 and prints only the message.
+ */
+export type InputErrorCode =
+  | 'parse'
+  | 'schema'
+  | 'unknown-material'
+  | 'bad-formula'
+  | 'bad-value'
+  | 'unknown-variable'
+  | 'io';
+
+export class InputError extends Error {
+  override readonly name = 'InputError';
+  constructor(
+    readonly code: InputErrorCode,
+    message: string,
+    /** Dotted path of the offending field in the spec, when there is one (e.g. "stack[2].thickness"). */
+    readonly field?: string,
+  ) {
+    super(message);
+  }
+}
+
+export const isInputError = (e: unknown): e is InputError => e instanceof InputError;
