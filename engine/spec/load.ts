@@ -1,0 +1,112 @@
+/**
+ * Reading a spec: text (YAML or JSON) -> validated Spec, with every error naming the field and,
+ * for files, the line. Errors found later (while resolving materials and variables) carry a field
+ * path too; `locate` turns it into a line so the CLI can print "(line 14)" for them as well.
+ */
+import { readFileSync } from 'node:fs';
+import { LineCounter, parseDocument, isMap, isPair, isScalar, type Document } from 'yaml';
+import type { z } from 'zod';
+import { InputError } from '../errors.js';
+import { specSchema, type Spec } from './schema.js';
+
+export interface LoadedSpec {
+  readonly spec: Spec;
+  /** Where the spec came from (file path, or "<inline>"). */
+  readonly origin: string;
+  /** 1-based line of a field path such as "stack[2].thickness", when the source has lines. */
+  readonly locate: (field: string) => number | undefined;
+}
+
+/** "stack[2].thickness" -> ["stack", 2, "thickness"]. */
+export function fieldPath(field: string): (string | number)[] {
+  const out: (string | number)[] = [];
+  for (const m of field.matchAll(/([^.[\]]+)|\[(\d+)\]/g)) out.push(m[2] !== undefined ? Number(m[2]) : (m[1] as string));
+  return out;
+}
+
+/** ["stack", 2, "thickness"] -> "stack[2].thickness". */
+export function fieldName(path: readonly PropertyKey[]): string {
+  let s = '';
+  for (const p of path) s += typeof p === 'number' ? `[${p}]` : s === '' ? String(p) : `.${String(p)}`;
+  return s === '' ? '(top level)' : s;
+}
+
+function locator(doc: Document, lines: LineCounter): (field: string) => number | undefined {
+  return (field) => {
+    const path = fieldPath(field);
+    // Walk down as far as the document goes: an unknown key's parent still has a line.
+    for (let n = path.length; n >= 0; n--) {
+      const head = path.slice(0, n);
+      const parent = n === 0 ? doc.contents : doc.getIn(head.slice(0, -1), true);
+      let range: readonly number[] | null | undefined;
+      if (n > 0 && isMap(parent)) {
+        const pair = parent.items.find((it) => isPair(it) && isScalar(it.key) && it.key.value === head[n - 1]);
+        range = pair && isScalar(pair.key) ? pair.key.range : undefined;
+      } else if (n > 0) {
+        const node = doc.getIn(head, true) as { range?: readonly number[] } | undefined;
+        range = node?.range;
+      } else {
+        range = (doc.contents as { range?: readonly number[] } | null)?.range;
+      }
+      if (range) return lines.linePos(range[0] as number).line;
+    }
+    return undefined;
+  };
+}
+
+function describeIssue(issue: z.core.$ZodIssue): string {
+  const field = fieldName(issue.path);
+  switch (issue.code) {
+    case 'unrecognized_keys':
+      return `${fieldName([...issue.path, issue.keys[0] as string])}: unknown key "${issue.keys[0]}"; check its spelling against the spec schema (schema/spec.schema.json)`;
+    case 'invalid_type':
+      return issue.input === undefined
+        ? `${field}: is required (expected ${issue.expected})`
+        : `${field}: expected ${issue.expected}, got ${JSON.stringify(issue.input)}`;
+    case 'invalid_union':
+      if (issue.input === undefined) return `${field}: is required`;
+      return `${field}: got ${JSON.stringify(issue.input)}, which is not a number, a quantity with a unit, a variable name or {from, to}`;
+    default:
+      return `${field}: ${issue.message}${issue.input !== undefined ? `, got ${JSON.stringify(issue.input)}` : ''}`;
+  }
+}
+
+/** Validates an already-parsed value (e.g. from a library caller). */
+export function validateSpec(value: unknown, locate: (field: string) => number | undefined = () => undefined): Spec {
+  const r = specSchema.safeParse(value, { reportInput: true });
+  if (r.success) return r.data;
+  const first = r.error.issues[0] as z.core.$ZodIssue;
+  const field = fieldName(first.path);
+  const line = locate(first.code === 'unrecognized_keys' ? fieldName([...first.path, first.keys[0] as string]) : field);
+  const more = r.error.issues.length > 1 ? ` (and ${r.error.issues.length - 1} more problem${r.error.issues.length > 2 ? 's' : ''})` : '';
+  throw new InputError('schema', `${describeIssue(first)}${line ? ` (line ${line})` : ''}${more}`, field);
+}
+
+/** Parses spec text (YAML, of which JSON is a subset). */
+export function parseSpecText(text: string, origin = '<inline>'): LoadedSpec {
+  const lines = new LineCounter();
+  const doc = parseDocument(text, { lineCounter: lines, prettyErrors: true, uniqueKeys: true });
+  if (doc.errors.length > 0) {
+    const e = doc.errors[0]!;
+    const line = e.linePos?.[0]?.line;
+    throw new InputError('parse', `${origin}: not valid YAML/JSON${line ? ` at line ${line}` : ''}: ${(e.message.split('\n')[0] ?? '').replace(/ at line \d+, column \d+:?$/, '')}`);
+  }
+  const locate = locator(doc, lines);
+  const value: unknown = doc.toJS({ maxAliasCount: 100 });
+  if (value === null || typeof value !== 'object' || Array.isArray(value)) {
+    throw new InputError('schema', `${origin}: a spec must be a mapping with at least a "stack" list, got ${value === null ? 'an empty file' : Array.isArray(value) ? 'a list' : typeof value}`);
+  }
+  return { spec: validateSpec(value, locate), origin, locate };
+}
+
+/** Reads and parses a spec file. */
+export function loadSpecFile(path: string): LoadedSpec {
+  let text: string;
+  try {
+    text = readFileSync(path, 'utf8');
+  } catch (e) {
+    const code = (e as NodeJS.ErrnoException).code;
+    throw new InputError('io', `cannot read spec file "${path}"${code === 'ENOENT' ? ': no such file' : code ? ` (${code})` : ''}; check the path`);
+  }
+  return parseSpecText(text, path);
+}

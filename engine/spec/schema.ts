@@ -1,0 +1,83 @@
+/**
+ * The spec file's shape (ours). One zod schema is the single source for validation, for the
+ * TypeScript types and for the shipped JSON Schema (schema/spec.schema.json). Quantities stay
+ * strings with units here; engine/spec/units.ts converts them when the structure is resolved,
+ * so an error can still point at the field the user wrote.
+ */
+import { z } from 'zod';
+
+const quantity = z.union([z.number(), z.string()]);
+const name = z.string().regex(/^[A-Za-z_][A-Za-z0-9_]*$/, 'must be a name of letters, digits and _ that starts with a letter');
+
+/** A fraction: a number in [0, 1], a variable name, or a linear grade {from, to}. */
+export const fractionValue = z.union([
+  z.number(),
+  name,
+  z.object({ from: z.number(), to: z.number() }).strict(),
+]);
+
+export const layerSchema = z
+  .object({
+    material: z.string().min(1).describe('Formula (Al0.3Ga0.7As), named alloy (InGaAs with a fraction key such as In: 0.2) or a custom material name'),
+    thickness: quantity.describe('Length with unit (nm, Å, ML) or the name of a vary variable'),
+    label: z.string().optional().describe('A name for the layer used in tables (well, barrier…)'),
+  })
+  .catchall(fractionValue)
+  .describe('One layer, from the substrate side upwards');
+
+export const customMaterialSchema = z
+  .object({
+    Ec: quantity.describe('Conduction-band edge on the absolute scale (eV)'),
+    Ev: quantity.describe('Valence-band edge on the absolute scale (eV)'),
+    me: z.number().positive().describe('Electron mass (m0)'),
+    mhh: z.number().positive().describe('Heavy-hole mass along z (m0)'),
+    mlh: z.number().positive().describe('Light-hole mass along z (m0)'),
+    mhh_inplane: z.number().positive().optional(),
+    mlh_inplane: z.number().positive().optional(),
+    lattice: quantity.optional().describe('Lattice constant (nm or Å); sets the monolayer'),
+    nonparabolicity: quantity.optional().describe('Electron non-parabolicity α (1/eV); default 1/Eg'),
+  })
+  .strict();
+
+export const variableSchema = z
+  .object({
+    from: quantity,
+    to: quantity,
+    value: quantity.optional().describe('Nominal value used by solve and tolerance'),
+  })
+  .strict();
+
+export const offsetsSchema = z
+  .object({
+    conduction_share: z.number().gt(0).lt(1).describe('ΔEc/ΔEg at each heterointerface, relative to the reference material'),
+    reference: z.string().optional().describe('Reference material for the share rule; default the substrate'),
+  })
+  .strict();
+
+export const solverSchema = z
+  .object({
+    nonparabolic: z.boolean().optional().describe('Energy-dependent electron mass (two-band); default true'),
+    slice: quantity.optional().describe('Slice width for graded layers and fields; default 0.2 nm, Richardson-extrapolated'),
+    max_states: z.number().int().positive().optional().describe('At most this many states per band; default all bound states'),
+  })
+  .strict();
+
+export const specSchema = z
+  .object({
+    title: z.string().optional(),
+    substrate: z.string().optional().describe('Substrate formula; layers are strained to it. Omit for unstrained layers'),
+    temperature: quantity.optional().describe('Temperature, e.g. "300 K" (default 300 K)'),
+    field: quantity.optional().describe('Electric field along z, e.g. "20 kV/cm" (default 0)'),
+    offsets: offsetsSchema.optional(),
+    materials: z.record(name, customMaterialSchema).optional(),
+    vary: z.record(name, variableSchema).optional(),
+    stack: z.array(layerSchema).min(1),
+    solver: solverSchema.optional(),
+    targets: z.array(z.record(z.string(), z.unknown())).optional(),
+  })
+  .strict();
+
+export type Spec = z.infer<typeof specSchema>;
+export type LayerSpec = z.infer<typeof layerSchema>;
+export type CustomMaterialSpec = z.infer<typeof customMaterialSchema>;
+export type VariableSpec = z.infer<typeof variableSchema>;
