@@ -1,0 +1,34 @@
+/**
+ * Value types of the wire cross-section solver: the discretised cross-section it accepts and the
+ * states it returns. Energies eV, lengths nm, masses m0.
+ */
+
+/** A wire cross-section sampled on a uniform rectangular grid of interior nodes. */
+export interface CrossSectionGrid {
+  /** Interior nodes along x and y; ψ = 0 on the surrounding ring of boundary nodes. */
+  readonly nx: number;
+  readonly ny: number;
+  /** Node spacings (nm). */
+  readonly dx_nm: number;
+  readonly dy_nm: number;
+  /** Coordinates of node (0, 0) (nm); the Dirichlet wall lies one spacing further out. */
+  readonly x0_nm: number;
+  readonly y0_nm: number;
+  /** Particle-sense potential at the nodes (eV), index i + nx·j. */
+  readonly V: Float64Array;
+  /** Effective mass at the nodes (m0), index i + nx·j. */
+  readonly mass: Float64Array;
+}
+
+/** Bound states of the cross-section, lowest first. */
+export interface WireStates {
+  /** Subband-edge energies (eV), ascending. */
+  readonly energies: readonly number[];
+  /** Envelopes at the nodes (1/nm), index i + nx·j, normalised Σ|ψ|² dx dy = 1. */
+  readonly psi: readonly Float64Array[];
+  /** Eigen-solver iterations spent (summed over grids where several are solved). */
+  readonly iterations: number;
+  /** Interior nodes [nx, ny] of the grid the states belong to. */
+  readonly gridSize: readonly [number, number];
+  readonly status: 'converged' | 'max-iterations';
+}
