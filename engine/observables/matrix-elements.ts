@@ -42,10 +42,15 @@ const checkSamples = (y: ArrayLike<number>, n: number, where: string): void => {
 export function simpson(y: ArrayLike<number>, z: ArrayLike<number>): number {
   checkGrid(z, 'simpson');
   checkSamples(y, z.length, 'simpson.y');
-  return simpsonUnchecked(y, z);
+  return simpsonOf(z, (i) => y[i]);
 }
 
-const simpsonUnchecked = (y: ArrayLike<number>, z: ArrayLike<number>): number => {
+/**
+ * Composite Simpson of the samples f(0) … f(n−1) on z (see simpson), with the integrand given as
+ * an index function so that products such as ψa·ψb·z are integrated without allocating: this is
+ * the inner loop of every overlap and dipole, evaluated for every pair of states in a solve.
+ */
+const simpsonOf = (z: ArrayLike<number>, f: (i: number) => number): number => {
   const intervals = z.length - 1;
   const pairs = Math.floor(intervals / 2);
   let sum = 0;
@@ -54,7 +59,7 @@ const simpsonUnchecked = (y: ArrayLike<number>, z: ArrayLike<number>): number =>
     const h0 = z[i + 1] - z[i];
     const h1 = z[i + 2] - z[i + 1];
     const hs = h0 + h1;
-    sum += (hs / 6) * ((2 - h1 / h0) * y[i] + ((hs * hs) / (h0 * h1)) * y[i + 1] + (2 - h0 / h1) * y[i + 2]);
+    sum += (hs / 6) * ((2 - h1 / h0) * f(i) + ((hs * hs) / (h0 * h1)) * f(i + 1) + (2 - h0 / h1) * f(i + 2));
   }
   if (intervals % 2 === 1) {
     const n = z.length - 1;
@@ -63,19 +68,18 @@ const simpsonUnchecked = (y: ArrayLike<number>, z: ArrayLike<number>): number =>
     const alpha = (2 * h1 * h1 + 3 * h0 * h1) / (6 * (h0 + h1));
     const beta = (h1 * h1 + 3 * h0 * h1) / (6 * h0);
     const eta = (h1 * h1 * h1) / (6 * h0 * (h0 + h1));
-    sum += alpha * y[n] + beta * y[n - 1] - eta * y[n - 2];
+    sum += alpha * f(n) + beta * f(n - 1) - eta * f(n - 2);
   }
   return sum;
 };
 
-const weighted = (a: ArrayLike<number>, b: ArrayLike<number>, w: (i: number) => number): number[] =>
-  Array.from({ length: a.length }, (_, i) => a[i] * b[i] * w(i));
-
+/** Grid and lengths are checked up front; a non-finite sample surfaces as a non-finite integral. */
 const checkPair = (psiA: ArrayLike<number>, psiB: ArrayLike<number>, z: ArrayLike<number>, where: string): void => {
   checkGrid(z, where);
-  checkSamples(psiA, z.length, `${where}.psiA`);
-  checkSamples(psiB, z.length, `${where}.psiB`);
+  if (psiA.length !== z.length || psiB.length !== z.length) fail(where, `needs one sample per grid point (${z.length})`, `${psiA.length} and ${psiB.length} samples`, 'sample every function on the same z grid');
 };
+
+const finiteOr = (x: number, where: string): number => (Number.isFinite(x) ? x : fail(where, 'integral is not finite', x, 'check the wavefunctions and the grid for NaN, overflow or repeated points'));
 
 /**
  * Squared envelope overlap |∫ψA ψB dz|², the envelope part of an interband (e.g. e1–hh1)
@@ -87,7 +91,7 @@ const checkPair = (psiA: ArrayLike<number>, psiB: ArrayLike<number>, z: ArrayLik
  */
 export function overlap2(psiA: ArrayLike<number>, psiB: ArrayLike<number>, z: ArrayLike<number>): number {
   checkPair(psiA, psiB, z, 'overlap2');
-  const s = simpsonUnchecked(weighted(psiA, psiB, () => 1), z);
+  const s = finiteOr(simpsonOf(z, (i) => psiA[i] * psiB[i]), 'overlap2');
   return s * s;
 }
 
@@ -103,7 +107,7 @@ export function overlap2(psiA: ArrayLike<number>, psiB: ArrayLike<number>, z: Ar
  */
 export function dipoleNm(psiI: ArrayLike<number>, psiJ: ArrayLike<number>, z: ArrayLike<number>): number {
   checkPair(psiI, psiJ, z, 'dipoleNm');
-  return simpsonUnchecked(weighted(psiI, psiJ, (k) => z[k]), z);
+  return finiteOr(simpsonOf(z, (i) => psiI[i] * psiJ[i] * z[i]), 'dipoleNm');
 }
 
 /**
@@ -144,7 +148,7 @@ export function sumRuleMass(psi: ArrayLike<number>, massProfile: ArrayLike<numbe
   for (let i = 0; i < massProfile.length; i++) {
     if (!(massProfile[i] > 0)) fail(`sumRuleMass.massProfile[${i}]`, 'must be positive (m0)', massProfile[i], 'pass the effective mass at every grid point');
   }
-  const inverse = simpsonUnchecked(weighted(psi, psi, (k) => 1 / massProfile[k]), z);
-  const norm = simpsonUnchecked(weighted(psi, psi, () => 1), z);
+  const inverse = simpsonOf(z, (k) => (psi[k] * psi[k]) / massProfile[k]);
+  const norm = simpsonOf(z, (k) => psi[k] * psi[k]);
   return norm / inverse;
 }

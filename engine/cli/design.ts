@@ -1,0 +1,112 @@
+/** `wellsmith design SPEC`: ranked, growable designs for the spec's targets. */
+import { join } from 'node:path';
+import { describeObjectives } from '../../objectives/index.js';
+import { design, type Design, type DesignResult } from '../design/search.js';
+import { designSpecText } from '../design/write.js';
+import { loadSpecFile } from '../spec/load.js';
+import type { Spec } from '../spec/schema.js';
+import { InputError } from '../errors.js';
+import { EXIT, failure, success, type Outcome } from './exit.js';
+import { fixed, sig, table, toJson } from './format.js';
+import { csvLine, writeFileAtomic } from './output.js';
+import { progressBar } from './progress.js';
+import { solveJson } from './solve.js';
+
+export interface DesignArgs {
+  readonly spec: string;
+  readonly starts: number;
+  readonly seed: number;
+  readonly top: number;
+  readonly workers: number;
+  readonly step: number;
+  readonly evaluations: number;
+  readonly out: string | undefined;
+  readonly json: boolean;
+}
+
+export const TARGET_HELP = `Target kinds (under "targets:" in the spec):\n${describeObjectives()}`;
+
+const variableCell = (v: Design['variables'][number]): string =>
+  v.kind === 'fraction' ? v.value.toFixed(3) : `${fixed(v.nm, 3)} nm / ${fixed(v.ml, 1)} ML`;
+
+const achievedCell = (e: Design['evaluations'][number]): string =>
+  e.achieved === null ? 'missing' : `${sig(e.achieved, 6)}${e.unit ? ` ${e.unit}` : ''}`;
+
+/** Design JSON: the spec's variables, the resolved stack and the same transitions[] shape as solve. */
+export function designJson(r: DesignResult): unknown {
+  return {
+    status: r.status,
+    message: r.message,
+    seed: r.seed,
+    starts: r.starts,
+    evaluations: r.evaluations,
+    failures: r.failures,
+    designs: r.designs.map((d) => ({
+      rank: d.rank,
+      loss: d.loss,
+      satisfied: d.satisfied,
+      variables: d.variables,
+      targets: d.evaluations,
+      critical_thickness_margin: d.criticalMargin,
+      start: d.start,
+      ...(solveJson(d.result, false) as object),
+    })),
+  };
+}
+
+export function describeDesign(r: DesignResult, spec: Spec): string {
+  const first = r.designs[0];
+  if (!first) return `status: ${r.status}: ${r.message}`;
+  const header = ['rank', ...first.variables.map((v) => (v.kind === 'fraction' ? v.name : `${v.name} (nm / ML)`)),
+    ...first.evaluations.map((e) => e.label), 'loss', 'h_c margin'];
+  const rows = r.designs.map((d) => [String(d.rank), ...d.variables.map((v) => `${variableCell(v)}${v.atBound ? ` (${v.atBound} bound)` : ''}`),
+    ...d.evaluations.map((e) => (e.role === 'figure' ? achievedCell(e) : `${achievedCell(e)} (${e.residual >= 0 ? '+' : ''}${e.residual.toFixed(2)})${e.satisfied ? '' : ' ✗'}`)),
+    sig(d.loss, 3), `${fixed(d.criticalMargin * 100, 0)} %`]);
+  const lines = [spec.title ? `${spec.title}\n` : '', `Designs (${r.starts} starts, seed ${r.seed}, ${r.evaluations} solves${r.failures ? `, ${r.failures} failed candidates` : ''}); residuals in window half-widths, |r| ≤ 1 meets the target`, table(header, rows)];
+  if (r.status !== 'ok') {
+    const bound = first.variables.filter((v) => v.atBound).map((v) => `${v.name} at its ${v.atBound} bound`);
+    const missed = first.evaluations.filter((e) => !e.satisfied).map((e) => `${e.label}: closest ${achievedCell(e)} (goal ${e.goal === null ? '–' : sig(e.goal, 6)} ${e.unit})`);
+    lines.push('', `status: ${r.status}: ${r.message}`, ...missed.map((m) => `  ${m}`), ...(bound.length ? [`  ${bound.join('; ')}: widen that bound or change the materials`] : []));
+  }
+  return lines.join('\n');
+}
+
+function writeOutputs(dir: string, r: DesignResult, spec: Spec, args: DesignArgs): void {
+  const rows = [csvLine(['rank', 'loss', 'satisfied', ...(r.designs[0]?.variables.flatMap((v) => (v.kind === 'fraction' ? [v.name] : [`${v.name}_nm`, `${v.name}_ML`])) ?? []),
+    ...(r.designs[0]?.evaluations.flatMap((e) => [`${e.label} (${e.unit || '-'})`, `${e.label} residual`]) ?? []), 'critical_thickness_margin', 'file'])];
+  for (const d of r.designs) {
+    const file = `design-${d.rank}.yaml`;
+    writeFileAtomic(join(dir, file), designSpecText(spec, d.values, `Design ${d.rank} of "${spec.title ?? args.spec}" by wellsmith design (seed ${r.seed}, ${r.starts} starts)\nloss ${d.loss}; every target ${d.satisfied ? 'met' : 'NOT met'}. Solve it with: wellsmith solve ${file}`));
+    rows.push(csvLine([d.rank, d.loss, d.satisfied ? 'yes' : 'no', ...d.variables.flatMap((v) => (v.kind === 'fraction' ? [v.value] : [v.nm ?? NaN, v.ml ?? NaN])),
+      ...d.evaluations.flatMap((e) => [e.achieved ?? NaN, e.residual]), d.criticalMargin, file]));
+  }
+  writeFileAtomic(join(dir, 'ranking.csv'), `${rows.join('\n')}\n`);
+}
+
+export async function runDesign(args: DesignArgs): Promise<Outcome> {
+  let locate: ((f: string) => number | undefined) | undefined;
+  const bar = progressBar('design');
+  try {
+    for (const [name, v, min] of [['--starts', args.starts, 1], ['--top', args.top, 1], ['--workers', args.workers, 1], ['--evaluations', args.evaluations, 10]] as const) {
+      if (!Number.isInteger(v) || v < min) throw new InputError('bad-value', `${name}: must be a whole number ≥ ${min}, got ${v}`);
+    }
+    if (!Number.isSafeInteger(args.seed) || args.seed < 0) throw new InputError('bad-value', `--seed: must be a whole number ≥ 0, got ${args.seed}`);
+    if (!(args.step > 0 && args.step <= 0.1)) throw new InputError('bad-value', `--step: the composition step must lie in (0, 0.1], got ${args.step}`);
+    const loaded = loadSpecFile(args.spec);
+    locate = loaded.locate;
+    let best = Infinity;
+    const result = await design(loaded.spec, {
+      starts: args.starts, seed: args.seed, top: args.top, workers: args.workers, compositionStep: args.step, maxEvaluations: args.evaluations,
+      onProgress: (done, total, last) => {
+        best = Math.min(best, last.snapped.loss);
+        bar.update(done, total, `best loss ${sig(best, 3)}`);
+      },
+    });
+    bar.stop();
+    if (args.out !== undefined) writeOutputs(args.out, result, loaded.spec, args);
+    return success(`${args.json ? toJson(designJson(result)) : describeDesign(result, loaded.spec)}\n`, result.status === 'ok' ? EXIT.ok : EXIT.physics);
+  } catch (e) {
+    bar.stop();
+    return failure(e, locate);
+  }
+}

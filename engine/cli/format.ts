@@ -1,0 +1,27 @@
+/** Plain-text tables and number formatting for the human output of every command. */
+
+/** Left-aligns text columns and right-aligns numeric ones; the first row is the header. */
+export function table(header: readonly string[], rows: readonly (readonly string[])[]): string {
+  const widths = header.map((h, c) => Math.max(h.length, ...rows.map((r) => (r[c] ?? '').length)));
+  const numeric = header.map((_, c) => rows.length > 0 && rows.every((r) => /^[-+]?[\d.]+(e[-+]?\d+)?$|^[-–]$|^∞$/.test((r[c] ?? '').trim())));
+  const line = (cells: readonly string[]): string =>
+    cells.map((cell, c) => (numeric[c] ? cell.padStart(widths[c]!) : cell.padEnd(widths[c]!))).join('  ').trimEnd();
+  return [line(header), widths.map((w) => '─'.repeat(w)).join('  '), ...rows.map(line)].join('\n');
+}
+
+/** Fixed decimals, with "–" for a missing or non-finite value. */
+export const fixed = (x: number | undefined, digits: number): string =>
+  x === undefined || !Number.isFinite(x) ? (x === Infinity ? '∞' : '–') : x.toFixed(digits);
+
+/** A number with about `digits` significant figures, exponent form when very small or large. */
+export const sig = (x: number, digits = 4): string =>
+  !Number.isFinite(x) ? (x > 0 ? '∞' : '–') : x !== 0 && (Math.abs(x) < 1e-3 || Math.abs(x) >= 1e6) ? x.toExponential(digits - 1) : String(Number(x.toPrecision(digits)));
+
+/** JSON with typed arrays as plain arrays and non-finite numbers as strings ("Infinity"), so nothing is silently lost. */
+export function toJson(value: unknown): string {
+  return JSON.stringify(value, (_k, v: unknown) => {
+    if (v instanceof Float64Array) return Array.from(v);
+    if (typeof v === 'number' && !Number.isFinite(v)) return String(v);
+    return v;
+  }, 2);
+}

@@ -1,0 +1,25 @@
+/** A progress bar on stderr, only when stderr is a terminal; stdout stays for results. */
+import cliProgress from 'cli-progress';
+
+export interface Progress {
+  readonly update: (done: number, total: number, note: string) => void;
+  readonly stop: () => void;
+}
+
+export function progressBar(label: string): Progress {
+  if (!process.stderr.isTTY) return { update: () => undefined, stop: () => undefined };
+  const bar = new cliProgress.SingleBar({
+    stream: process.stderr,
+    format: `${label} [{bar}] {value}/{total} · eta {eta_formatted} · {note}`,
+    hideCursor: true,
+    clearOnComplete: true,
+  }, cliProgress.Presets.shades_classic);
+  let started = false;
+  return {
+    update: (done, total, note) => {
+      if (!started) { bar.start(total, 0, { note }); started = true; }
+      bar.update(done, { note });
+    },
+    stop: () => { if (started) bar.stop(); },
+  };
+}

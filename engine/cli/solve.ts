@@ -1,0 +1,53 @@
+/** `wellsmith solve SPEC`: states, transitions and 2-D DOS steps of a fixed structure. */
+import { loadSpecFile } from '../spec/load.js';
+import { solve, BANDS, type SolveResult } from '../solve.js';
+import type { Structure } from '../structure.js';
+import { EXIT, failure, success, type Outcome } from './exit.js';
+import { fixed, sig, table, toJson } from './format.js';
+
+export interface SolveArgs { readonly spec: string; readonly json: boolean; readonly wavefunctions: boolean }
+
+/** The machine-readable form: everything but the sampled wavefunctions unless asked. */
+export function solveJson(r: SolveResult, withWavefunctions: boolean): unknown {
+  const { wavefunctions, ...rest } = r;
+  return withWavefunctions ? r : rest;
+}
+
+export function describeStructure(s: Structure): string {
+  const offsets = s.offsetRule.kind === 'absolute' ? s.offsetRule.source : `conduction-band share ${s.offsetRule.share} of ΔEg relative to ${s.offsetRule.reference}`;
+  const head = `T = ${s.temperature_K} K · substrate ${s.substrate ?? 'none (unstrained)'} · field ${s.field_kV_per_cm} kV/cm\noffsets: ${offsets}`;
+  const rows = s.layers.map((l) => {
+    const b = l.bands[Math.floor(l.bands.length / 2)]!;
+    return [String(l.index + 1), l.label, l.formula, fixed(l.thickness_nm, 3), fixed(l.monolayers, 2), fixed(b.Ec, 4), fixed(b.Ehh, 4), fixed(b.Elh, 4),
+      fixed(l.material.strain_par * 100, 3), l.material.criticalThickness_nm === Infinity ? '∞' : fixed(l.material.criticalThickness_nm, 1)];
+  });
+  return `${head}\n${table(['#', 'layer', 'material', 'thickness nm', 'ML', 'Ec eV', 'Ehh eV', 'Elh eV', 'ε∥ %', 'h_c nm'], rows)}`;
+}
+
+export function describeSolve(r: SolveResult): string {
+  const out: string[] = [];
+  if (r.structure.title) out.push(r.structure.title, '');
+  out.push(describeStructure(r.structure), '');
+  const stateRows = BANDS.flatMap((b) => r.bands[b].states.map((s) => [b.replace('_', ' '), s.label, fixed(s.energy_eV, 5), fixed(s.confinement_meV, 2), s.bound ? 'yes' : 'quasi', fixed(s.mass_inplane, 4)]));
+  out.push('States (energies on the absolute scale; confinement from the band extremum)', table(['band', 'state', 'energy eV', 'confinement meV', 'bound', 'm∥ m0'], stateRows), '');
+  const inter = r.transitions.filter((t) => t.kind === 'interband');
+  if (inter.length > 0) out.push('Interband transitions', table(['transition', 'energy eV', 'wavelength nm', 'overlap²'], inter.map((t) => [t.label, fixed(t.energy_eV, 5), fixed(t.wavelength_nm, 2), fixed(t.overlap2, 4)])), '');
+  const isb = r.transitions.filter((t) => t.kind === 'intersubband');
+  if (isb.length > 0) out.push('Intersubband transitions', table(['transition', 'energy meV', 'wavelength µm', 'wavenumber cm⁻¹', 'dipole nm', 'osc. strength'], isb.map((t) => [t.label, fixed(t.energy_eV * 1000, 2), fixed(t.wavelength_nm / 1000, 3), fixed(t.wavenumber_per_cm, 1), fixed(t.dipole_nm, 4), fixed(t.oscillator_strength, 4)])), '');
+  const dosRows = BANDS.flatMap((b) => r.dos.bands[b].map((d) => [d.label, fixed(d.edge_eV, 5), fixed(d.mass_inplane, 4), sig(d.step_per_cm2_per_eV, 4)]));
+  out.push(`2-D density of states: one step per subband (${r.dos.unit})`, table(['subband', 'edge eV', 'm∥ m0', 'step cm⁻² eV⁻¹'], dosRows));
+  if (r.status !== 'ok') out.push('', `status: ${r.status}: ${r.message}`);
+  return out.join('\n');
+}
+
+export function runSolve(args: SolveArgs): Outcome {
+  let locate: ((f: string) => number | undefined) | undefined;
+  try {
+    const loaded = loadSpecFile(args.spec);
+    locate = loaded.locate;
+    const result = solve(loaded.spec);
+    return success(`${args.json ? toJson(solveJson(result, args.wavefunctions)) : describeSolve(result)}\n`, result.status === 'ok' ? EXIT.ok : EXIT.physics);
+  } catch (e) {
+    return failure(e, locate);
+  }
+}

@@ -1,0 +1,135 @@
+/**
+ * Inverse design: many bounded Nelder–Mead starts from a seeded Latin hypercube, run on the
+ * worker pool, each snapped to a growable lattice point; then duplicates dropped, designs ranked
+ * by loss (ties by start index), the top K re-solved in full. Same spec and seed give the same
+ * ranked designs for any worker count, because every start is deterministic and results are
+ * ordered by start index before ranking.
+ */
+import { type Evaluation } from '../../objectives/types.js';
+import { runTasks, type PoolOptions } from '../pool.js';
+import { solveStructure, type SolveResult } from '../solve.js';
+import type { Spec } from '../spec/schema.js';
+import { buildStructure, type VariableInfo } from '../structure.js';
+import { scoreTargets } from '../../objectives/index.js';
+import { prepareDesign } from './problem.js';
+import type { StartOutcome, StartTask } from './start.js';
+import { startPoints } from './starts.js';
+
+export interface DesignOptions {
+  readonly starts: number;
+  readonly seed: number;
+  readonly top: number;
+  readonly workers: number;
+  /** Grower's composition step for alloy fractions. */
+  readonly compositionStep: number;
+  /** Nelder–Mead evaluation budget per start. */
+  readonly maxEvaluations: number;
+  readonly onProgress?: PoolOptions['onProgress'];
+}
+
+export const DEFAULT_DESIGN_OPTIONS: Omit<DesignOptions, 'workers'> = { starts: 16, seed: 1, top: 5, compositionStep: 0.001, maxEvaluations: 300 };
+
+export interface DesignVariable {
+  readonly name: string;
+  readonly kind: 'length' | 'fraction';
+  /** Value in the variable's own unit (nm, ML or fraction). */
+  readonly value: number;
+  readonly unit: 'nm' | 'ML' | '';
+  /** For lengths: thickness in nm and in monolayers of the first layer it sets. */
+  readonly nm?: number;
+  readonly ml?: number;
+  /** 'lower' or 'upper' when the value sits on its bound. */
+  readonly atBound: 'lower' | 'upper' | null;
+}
+
+export interface Design {
+  readonly rank: number;
+  readonly loss: number;
+  readonly satisfied: boolean;
+  readonly variables: readonly DesignVariable[];
+  readonly values: Readonly<Record<string, number>>;
+  readonly evaluations: readonly Evaluation[];
+  /** Smallest (h_c − t)/h_c over strained layers (1 = unstrained or far below; < 0 = above critical). */
+  readonly criticalMargin: number;
+  /** The start that found it. */
+  readonly start: number;
+  readonly result: SolveResult;
+}
+
+export type DesignStatus = 'ok' | 'infeasible' | 'no-finite-value';
+
+export const DESIGN_MESSAGES: Readonly<Record<DesignStatus, string>> = {
+  ok: 'the best design meets every target and constraint',
+  infeasible: 'no design inside the bounds meets every target; the closest is shown',
+  'no-finite-value': 'no candidate could be evaluated',
+};
+
+export interface DesignResult {
+  readonly status: DesignStatus;
+  readonly message: string;
+  readonly designs: readonly Design[];
+  readonly seed: number;
+  readonly starts: number;
+  /** Total objective evaluations over all starts (work done). */
+  readonly evaluations: number;
+  /** Candidates that failed numerically (each logged as infeasible, none fatal). */
+  readonly failures: number;
+}
+
+function atBound(v: VariableInfo, value: number): DesignVariable['atBound'] {
+  const tol = 1e-6 * (v.to - v.from) + (v.kind === 'length' ? 0.5 * 0.3 : 0.0005);
+  return value - v.from <= tol ? 'lower' : v.to - value <= tol ? 'upper' : null;
+}
+
+function describeVariables(spec: Spec, variables: readonly VariableInfo[], values: Readonly<Record<string, number>>, result: SolveResult): DesignVariable[] {
+  return variables.map((v) => {
+    const value = values[v.name]!;
+    const base = { name: v.name, kind: v.kind, value, unit: v.unit, atBound: atBound(v, value) };
+    if (v.kind !== 'length') return base;
+    const i = spec.stack.findIndex((l) => typeof l.thickness === 'string' && l.thickness.trim() === v.name);
+    const layer = result.structure.layers[i];
+    return layer ? { ...base, nm: layer.thickness_nm, ml: layer.monolayers } : base;
+  });
+}
+
+/** Ranked, growable designs for a spec's targets. */
+export async function design(spec: Spec, options: DesignOptions): Promise<DesignResult> {
+  const problem = prepareDesign(spec);
+  const bounds = problem.variables.map((v) => [v.from, v.to] as const);
+  const x0s = startPoints('latin-hypercube', options.starts, bounds, options.seed);
+  const tasks: StartTask[] = x0s.map((x0, index) => ({ type: 'design-start', spec, index, x0, maxEvaluations: options.maxEvaluations, compositionStep: options.compositionStep }));
+  const outcomes = (await runTasks(tasks, { workers: options.workers, ...(options.onProgress ? { onProgress: options.onProgress } : {}) })) as StartOutcome[];
+
+  const evaluations = outcomes.reduce((a, o) => a + o.evaluations, 0);
+  const failures = outcomes.reduce((a, o) => a + o.failures, 0);
+  const seen = new Set<string>();
+  const unique = outcomes
+    .filter((o) => Number.isFinite(o.snapped.loss))
+    .sort((a, b) => a.snapped.loss - b.snapped.loss || a.index - b.index)
+    .filter((o) => {
+      const key = problem.variables.map((v) => o.snapped.values[v.name]!.toPrecision(12)).join('|');
+      if (seen.has(key)) return false;
+      seen.add(key);
+      return true;
+    })
+    .slice(0, options.top);
+
+  const designs = unique.map((o, k): Design => {
+    const result = solveStructure(buildStructure(spec, o.snapped.values), problem.settings);
+    const scored = scoreTargets(problem.targets, result);
+    const margin = Math.min(1, ...result.structure.layers.map((l) => 1 - l.thickness_nm / l.material.criticalThickness_nm));
+    return {
+      rank: k + 1,
+      loss: scored.loss,
+      satisfied: scored.satisfied,
+      variables: describeVariables(spec, problem.variables, o.snapped.values, result),
+      values: o.snapped.values,
+      evaluations: scored.evaluations,
+      criticalMargin: margin,
+      start: o.index,
+      result,
+    };
+  });
+  const status: DesignStatus = designs.length === 0 ? 'no-finite-value' : designs[0]!.satisfied ? 'ok' : 'infeasible';
+  return { status, message: DESIGN_MESSAGES[status], designs, seed: options.seed, starts: options.starts, evaluations, failures };
+}

@@ -1,0 +1,62 @@
+/**
+ * One start of a design search, the unit of work sent to the pool: a bounded Nelder–Mead run
+ * from x0, then the snap of its optimum to whole monolayers and the composition step. Plain data
+ * in, plain data out, so the result does not depend on which worker ran it.
+ */
+import type { Spec } from '../spec/schema.js';
+import { minimize, type NelderMeadStatus } from './neldermead.js';
+import { evaluateDesign, prepareDesign, valuesOf } from './problem.js';
+import { snapToLattice } from './snap.js';
+
+export interface StartTask {
+  readonly type: 'design-start';
+  readonly spec: Spec;
+  readonly index: number;
+  readonly x0: readonly number[];
+  readonly maxEvaluations: number;
+  readonly compositionStep: number;
+}
+
+export interface StartOutcome {
+  readonly type: 'design-start';
+  readonly index: number;
+  /** The continuous optimum of this start. */
+  readonly x: readonly number[];
+  readonly loss: number;
+  readonly status: NelderMeadStatus;
+  readonly iterations: number;
+  /** Objective evaluations: the simplex's plus the lattice points tried while snapping. */
+  readonly evaluations: number;
+  /** Candidates that failed numerically (counted, not fatal). */
+  readonly failures: number;
+  /** The growable design of this start: variable values (nm, ML or fraction) and its loss. */
+  readonly snapped: { readonly values: Readonly<Record<string, number>>; readonly loss: number };
+}
+
+/** NM stopping rule: simplex spread below 1e-4 in every variable (nm or fraction) and 1e-9 in the loss. */
+const X_TOLERANCE = 1e-4;
+const F_TOLERANCE = 1e-9;
+
+export function runStart(task: StartTask): StartOutcome {
+  const problem = prepareDesign(task.spec);
+  let failures = 0;
+  const bounds = problem.variables.map((v) => [v.from, v.to] as const);
+  const nm = minimize((x) => {
+    const e = evaluateDesign(problem, valuesOf(problem.variables, x));
+    if (!e.ok) failures++;
+    return e.loss;
+  }, task.x0, { bounds, maxEvaluations: task.maxEvaluations, xTolerance: X_TOLERANCE, fTolerance: F_TOLERANCE });
+  const snapped = snapToLattice(problem, nm.x, { compositionStep: task.compositionStep });
+  if (!snapped.evaluated.ok) failures++;
+  return {
+    type: 'design-start',
+    index: task.index,
+    x: nm.x,
+    loss: nm.f,
+    status: nm.status,
+    iterations: nm.iterations,
+    evaluations: nm.evaluations + snapped.evaluations,
+    failures,
+    snapped: { values: snapped.values, loss: snapped.evaluated.loss },
+  };
+}

@@ -1,0 +1,22 @@
+/**
+ * A design as a spec file: the original spec with every variable's `value` set to the design's
+ * (bounds kept), so `wellsmith solve` on it reproduces the reported values exactly. Numbers are
+ * written in JavaScript's shortest round-trip form, so nothing is lost in the text.
+ */
+import { stringify } from 'yaml';
+import type { Spec } from '../spec/schema.js';
+import { variablesOf } from '../structure.js';
+
+export function designSpec(spec: Spec, values: Readonly<Record<string, number>>): Spec {
+  const vary: NonNullable<Spec['vary']> = {};
+  for (const v of variablesOf(spec)) {
+    const x = values[v.name]!;
+    vary[v.name] = { ...spec.vary![v.name]!, value: v.unit === '' ? x : `${String(x)} ${v.unit}` };
+  }
+  return { ...spec, vary };
+}
+
+export function designSpecText(spec: Spec, values: Readonly<Record<string, number>>, header: string): string {
+  const comment = header.split('\n').map((l) => `# ${l}`).join('\n');
+  return `${comment}\n${stringify(designSpec(spec, values), { lineWidth: 0 })}`;
+}

@@ -1,0 +1,259 @@
+/**
+ * The forward model: spec -> Structure -> band profiles -> bound states -> observables.
+ * `solveStructure` is what every design, tolerance and campaign evaluation calls; `solve` is the
+ * library entry point for a spec at its nominal variable values.
+ */
+import { HC_EV_NM, wavenumberPerCm } from './constants.js';
+import { buildBandProfile, isPiecewiseConstant, type BandName, type BandProfile } from './profile.js';
+import { solveBand, solveBandExtrapolated, wavefunction, type BandSolution } from './solver1d.js';
+import { buildStructure, nominalVariables, PARAMETER_SET, type Structure } from './structure.js';
+import type { Spec } from './spec/schema.js';
+import { parseLength } from './spec/units.js';
+import { InputError } from './errors.js';
+import { dipoleNm, oscillatorStrength, overlap2 } from './observables/matrix-elements.js';
+import { stepHeight2d } from './observables/dos.js';
+
+export const BANDS: readonly BandName[] = ['electron', 'heavy_hole', 'light_hole'];
+const PREFIX: Readonly<Record<BandName, string>> = { electron: 'e', heavy_hole: 'hh', light_hole: 'lh' };
+
+export interface SolverSettings {
+  /** Energy-dependent electron mass (two-band form). */
+  readonly nonparabolic: boolean;
+  /** Largest slice (nm) for graded layers and fields; results are Richardson-extrapolated. */
+  readonly slice_nm: number;
+  /** Upper limit on states per band (Infinity: all bound states). */
+  readonly maxStates: number;
+  /** Spacing of the z grid on which wavefunctions are sampled for overlaps (nm). */
+  readonly grid_nm: number;
+}
+
+export const DEFAULT_SETTINGS: SolverSettings = { nonparabolic: true, slice_nm: 0.2, maxStates: Infinity, grid_nm: 0.05 };
+
+export interface StateResult {
+  readonly label: string;
+  readonly index: number;
+  /** Energy on the absolute scale of the parameter set (eV). */
+  readonly energy_eV: number;
+  /** Energy above (electrons) or below (holes) the band's extremum in the structure (meV). */
+  readonly confinement_meV: number;
+  /** False for a quasi-bound state: one a field lets leave over or through the downhill barrier. */
+  readonly bound: boolean;
+  readonly nodes: number;
+  /** Probability-weighted in-plane mass (m0): (∫|ψ|²/m∥ dz)⁻¹. */
+  readonly mass_inplane: number;
+}
+
+export interface BandResult {
+  readonly states: readonly StateResult[];
+  /** Band extremum inside the structure (eV, absolute). */
+  readonly edge_eV: number;
+  /** Continuum edge: the lower (for holes, upper) of the two outer regions (eV, absolute). */
+  readonly barrier_eV: number;
+  readonly evaluations: number;
+}
+
+export interface TransitionResult {
+  readonly label: string;
+  readonly kind: 'interband' | 'intersubband';
+  readonly energy_eV: number;
+  readonly wavelength_nm: number;
+  readonly wavenumber_per_cm: number;
+  /** |⟨ψ_i|ψ_j⟩|² (interband envelope overlap; 0 for intersubband pairs of one band by orthogonality). */
+  readonly overlap2: number;
+  /** ⟨ψ_i|z|ψ_j⟩ (nm), intersubband only. */
+  readonly dipole_nm?: number;
+  /** Oscillator strength (dimensionless), intersubband only. */
+  readonly oscillator_strength?: number;
+}
+
+export interface DosStep {
+  readonly label: string;
+  readonly edge_eV: number;
+  readonly mass_inplane: number;
+  /** Height of this subband's step, m∥/(πħ²), in states cm⁻² eV⁻¹ (spin included). */
+  readonly step_per_cm2_per_eV: number;
+}
+
+export interface SolveResult {
+  readonly status: 'ok' | 'no-bound-state';
+  readonly message: string;
+  readonly structure: Structure;
+  readonly parameterSet: string;
+  readonly settings: SolverSettings;
+  readonly bands: Readonly<Record<BandName, BandResult>>;
+  readonly transitions: readonly TransitionResult[];
+  readonly dos: { readonly dimension: 2; readonly unit: string; readonly bands: Readonly<Record<BandName, readonly DosStep[]>> };
+  /** Wavefunctions on a uniform z grid (nm; z = 0 at the first layer's start), per band per state. */
+  readonly wavefunctions: { readonly z_nm: Float64Array; readonly psi: Readonly<Record<BandName, readonly Float64Array[]>> };
+}
+
+/** Settings from a spec's `solver:` section over the defaults. */
+export function settingsOf(spec: Spec): SolverSettings {
+  const s = spec.solver ?? {};
+  let slice_nm = DEFAULT_SETTINGS.slice_nm;
+  if (s.slice !== undefined) {
+    const l = parseLength(s.slice);
+    if (typeof l === 'string' || 'ml' in l || !(l.nm > 0)) throw new InputError('bad-value', `solver.slice: expected a positive length in nm or Å, got ${JSON.stringify(s.slice)}`, 'solver.slice');
+    slice_nm = l.nm;
+  }
+  return {
+    nonparabolic: s.nonparabolic ?? DEFAULT_SETTINGS.nonparabolic,
+    slice_nm,
+    maxStates: s.max_states ?? DEFAULT_SETTINGS.maxStates,
+    grid_nm: DEFAULT_SETTINGS.grid_nm,
+  };
+}
+
+function solveOneBand(structure: Structure, band: BandName, settings: SolverSettings): { profile: BandProfile; solution: BandSolution } {
+  const build = (h: number): BandProfile => buildBandProfile(structure, band, { maxSlice_nm: h, nonparabolic: settings.nonparabolic });
+  if (settings.maxStates === 0) {
+    const profile = build(settings.slice_nm);
+    return { profile, solution: { band, sign: profile.sign, states: [], barrier: Math.min(profile.left.V, profile.right.V), evaluations: 0 } };
+  }
+  const options = Number.isFinite(settings.maxStates) ? { maxStates: settings.maxStates } : {};
+  if (isPiecewiseConstant(structure)) {
+    const profile = build(settings.slice_nm);
+    return { profile, solution: solveBand(profile, options) };
+  }
+  // Wavefunctions come from the finer profile; energies from the extrapolation.
+  return { profile: build(settings.slice_nm / 2), solution: solveBandExtrapolated(build, settings.slice_nm, options) };
+}
+
+function inPlaneMass(profile: BandProfile, z: Float64Array, psi: Float64Array): number {
+  let acc = 0;
+  let norm = 0;
+  let k = 0;
+  let end = profile.slices[0]!.width_nm;
+  for (let i = 0; i < z.length; i++) {
+    while (k < profile.slices.length - 1 && z[i]! > end) end += profile.slices[++k]!.width_nm;
+    const p2 = psi[i]! * psi[i]!;
+    acc += p2 / profile.slices[k]!.massInPlane;
+    norm += p2;
+  }
+  return norm > 0 ? norm / acc : profile.slices[0]!.massInPlane;
+}
+
+/** Fraction of |ψ|² in the first and last layers (the claddings). */
+function outerShare(structure: Structure, z: Float64Array, psi: Float64Array): number {
+  const a = structure.layers[0]!.thickness_nm;
+  const b = structure.total_nm - structure.layers[structure.layers.length - 1]!.thickness_nm;
+  let out = 0;
+  let all = 0;
+  for (let i = 0; i < z.length; i++) {
+    const p = psi[i]! * psi[i]!;
+    all += p;
+    if (z[i]! < a || z[i]! > b) out += p;
+  }
+  return all > 0 ? out / all : 0;
+}
+
+/**
+ * Solves a resolved structure: every bound state of the three bands and their observables.
+ * With `wavefunctions: false` (the inner loop of a search whose targets need only energies) no
+ * wavefunction is sampled, so in-plane masses, overlaps, dipoles and oscillator strengths are NaN
+ * and the structure's quasi-bound filtering under a field uses energies only.
+ */
+export interface SolveOptions {
+  /** Sample wavefunctions (needed for overlaps, dipoles, in-plane masses); default true. */
+  readonly wavefunctions?: boolean;
+  /** Solve only the lowest n states of a band (0 skips it); a band not listed gets all its bound states. */
+  readonly states?: Partial<Record<BandName, number>>;
+}
+
+export function solveStructure(structure: Structure, settings: SolverSettings = DEFAULT_SETTINGS, options: SolveOptions = {}): SolveResult {
+  const sample = options.wavefunctions ?? true;
+  const n = sample ? Math.max(2, Math.round(structure.total_nm / settings.grid_nm) + 1) : 0;
+  const z = new Float64Array(n);
+  for (let i = 0; i < n; i++) z[i] = (structure.total_nm * i) / (n - 1);
+
+  const bands = {} as Record<BandName, BandResult>;
+  const psi = {} as Record<BandName, Float64Array[]>;
+  const dosBands = {} as Record<BandName, DosStep[]>;
+  for (const band of BANDS) {
+    const wanted = options.states?.[band];
+    const { profile, solution } = solveOneBand(structure, band, wanted === undefined ? settings : { ...settings, maxStates: Math.min(settings.maxStates, wanted) });
+    const sign = profile.sign;
+    let vmin = Infinity;
+    for (const s of profile.slices) vmin = Math.min(vmin, s.V);
+    const allWaves = solution.states.map((s) => (sample ? wavefunction(profile, s.energy, z) : z));
+    // Under a field the raised outer regions also hold box states of the downhill contact
+    // layer: continuum there, not states of the structure, so they are not reported.
+    const kept = solution.states.flatMap((s, k) =>
+      s.energy < profile.openEdge || (sample && outerShare(structure, z, allWaves[k]!) < 0.5) ? [{ s, psi: allWaves[k]! }] : []);
+    const waves = kept.map((k) => k.psi);
+    const states = kept.map(({ s, psi }, k): StateResult => ({
+      label: `${PREFIX[band]}${k + 1}`,
+      index: k + 1,
+      energy_eV: sign * s.energy,
+      confinement_meV: (s.energy - vmin) * 1000,
+      bound: s.energy < profile.openEdge,
+      nodes: s.nodes,
+      mass_inplane: sample ? inPlaneMass(profile, z, psi) : NaN,
+    }));
+    bands[band] = { states, edge_eV: sign * vmin, barrier_eV: sign * profile.openEdge, evaluations: solution.evaluations };
+    psi[band] = waves;
+    dosBands[band] = states.map((s) => ({ label: s.label, edge_eV: s.energy_eV, mass_inplane: s.mass_inplane, step_per_cm2_per_eV: sample ? stepHeight2d(s.mass_inplane) : NaN }));
+  }
+
+  const transitions: TransitionResult[] = [];
+  const photon = (dE: number): Pick<TransitionResult, 'energy_eV' | 'wavelength_nm' | 'wavenumber_per_cm'> => ({
+    energy_eV: dE, wavelength_nm: HC_EV_NM / dE, wavenumber_per_cm: wavenumberPerCm(dE),
+  });
+  const electrons = bands.electron.states;
+  for (const hole of ['heavy_hole', 'light_hole'] as const) {
+    for (const [i, e] of electrons.entries()) {
+      for (const [j, h] of bands[hole].states.entries()) {
+        transitions.push({ label: `${e.label}-${h.label}`, kind: 'interband', ...photon(e.energy_eV - h.energy_eV), overlap2: sample ? overlap2(psi.electron[i]!, psi[hole][j]!, z) : NaN });
+      }
+    }
+  }
+  for (let i = 0; i < electrons.length; i++) {
+    for (let j = i + 1; j < electrons.length; j++) {
+      const dE = electrons[j]!.energy_eV - electrons[i]!.energy_eV;
+      const d = sample ? dipoleNm(psi.electron[i]!, psi.electron[j]!, z) : NaN;
+      transitions.push({
+        label: `${electrons[i]!.label}-${electrons[j]!.label}`, kind: 'intersubband', ...photon(dE),
+        overlap2: sample ? overlap2(psi.electron[i]!, psi.electron[j]!, z) : NaN, dipole_nm: d,
+        oscillator_strength: sample ? oscillatorStrength(dE, d, electrons[i]!.mass_inplane) : NaN,
+      });
+    }
+  }
+
+  const missing = BANDS.filter((b) => bands[b].states.length === 0);
+  return {
+    status: missing.length === 0 || (bands.electron.states.length > 0 && missing.length < 2) ? 'ok' : 'no-bound-state',
+    message: missing.length === 0 ? 'all three bands have bound states' : `no bound state in: ${missing.join(', ')}`,
+    structure,
+    parameterSet: PARAMETER_SET,
+    settings,
+    bands,
+    transitions,
+    dos: { dimension: 2, unit: 'states cm^-2 eV^-1 per subband (spin included)', bands: dosBands },
+    wavefunctions: { z_nm: z, psi },
+  };
+}
+
+/** Library entry point: solves a validated spec at its nominal variable values. */
+export function solve(spec: Spec, values: Readonly<Record<string, number>> = nominalVariables(spec)): SolveResult {
+  return solveStructure(buildStructure(spec, values), settingsOf(spec));
+}
+
+/** A state by its label ("e1", "hh2", "lh1"), or undefined when that state is not bound. */
+export function findState(r: SolveResult, label: string): (StateResult & { readonly band: BandName }) | undefined {
+  for (const band of BANDS) {
+    const s = r.bands[band].states.find((x) => x.label === label);
+    if (s) return { ...s, band };
+  }
+  return undefined;
+}
+
+/** A transition by its label ("e1-hh1", "e1-e2"), or undefined when a state of it is missing. */
+export const findTransition = (r: SolveResult, label: string): TransitionResult | undefined => r.transitions.find((t) => t.label === label);
+
+/** The band a state label belongs to ("hh2" -> heavy_hole), or undefined for a malformed label. */
+export function bandOfLabel(label: string): { band: BandName; index: number } | undefined {
+  const m = /^(e|hh|lh)([1-9]\d*)$/.exec(label);
+  if (!m) return undefined;
+  const band = m[1] === 'e' ? 'electron' : m[1] === 'hh' ? 'heavy_hole' : 'light_hole';
+  return { band, index: Number(m[2]) };
+}

@@ -1,0 +1,355 @@
+/**
+ * Spec + values of the free variables -> Structure: a frozen list of layers with materials
+ * resolved at the temperature and strained on the substrate, thicknesses in nm and monolayers,
+ * and the band-offset rule that was applied. Everything downstream (profiles, solvers, designs)
+ * starts from this value; it is plain data so it can cross to a worker thread.
+ */
+import { InputError } from './errors.js';
+import type { LayerSpec, Spec, VariableSpec } from './spec/schema.js';
+import { parseField, parseLength, parseTemperature, splitQuantity, parseEnergy, type Length } from './spec/units.js';
+import { alloyFromName, customMaterial, formatFormula, GROUP_III, GROUP_V, parseFormula, resolveMaterial, type Alloy } from '../materials/index.js';
+import type { ResolvedMaterial } from '../materials/types.js';
+
+/** How band edges were placed on one energy scale; recorded in every output. */
+export type OffsetRule =
+  | { readonly kind: 'absolute'; readonly source: string }
+  | { readonly kind: 'conduction-share'; readonly share: number; readonly reference: string };
+
+/** Band edges and masses of one point of a layer, as the profile builder needs them. */
+export interface LayerBands {
+  readonly Ec: number;
+  readonly Ehh: number;
+  readonly Elh: number;
+  readonly me: number;
+  readonly mhh_z: number; readonly mlh_z: number;
+  readonly mhh_par: number; readonly mlh_par: number;
+  /** Two-band electron non-parabolicity α = 1/Eg (1/eV). */
+  readonly alpha: number;
+}
+
+/** Where a layer's composition comes from, kept so graded layers can be re-resolved along z. */
+export type LayerComposition =
+  | { readonly kind: 'alloy'; readonly alloy: Alloy }
+  | { readonly kind: 'graded'; readonly from: Alloy; readonly to: Alloy }
+  | { readonly kind: 'custom'; readonly name: string };
+
+export interface ResolvedLayer {
+  readonly index: number;
+  readonly label: string;
+  /** Canonical formula ("In0.2Ga0.8As"), "Al0.1→0.3Ga…As" style for graded layers, or the custom name. */
+  readonly formula: string;
+  readonly composition: LayerComposition;
+  readonly thickness_nm: number;
+  /** Thickness in monolayers of this layer's strained lattice (a⊥/2 along [001]). */
+  readonly monolayers: number;
+  readonly monolayer_nm: number;
+  /** Material at the layer's centre (graded layers: the mid composition). */
+  readonly material: ResolvedMaterial;
+  /**
+   * Band edges after the offset rule, sampled evenly from the layer's start to its end: one sample
+   * for a uniform layer, GRADE_SAMPLES for a graded one (bowing makes edges non-linear in
+   * composition, so the profile interpolates between samples rather than between the ends).
+   */
+  readonly bands: readonly LayerBands[];
+}
+
+export interface Structure {
+  readonly title: string;
+  readonly substrate: string | null;
+  readonly temperature_K: number;
+  readonly field_kV_per_cm: number;
+  readonly offsetRule: OffsetRule;
+  readonly layers: readonly ResolvedLayer[];
+  /** Values of the spec's free variables that produced this structure (nm, ML or fraction). */
+  readonly variables: Readonly<Record<string, number>>;
+  readonly total_nm: number;
+}
+
+/** Samples of band edges across a graded layer; linear interpolation between them is far below 0.1 meV off for the set's bowings. */
+export const GRADE_SAMPLES = 17;
+
+export const PARAMETER_SET = 'Vurgaftman, Meyer & Ram-Mohan, J. Appl. Phys. 89, 5815 (2001)';
+
+/** Kind and unit of a free variable, from the units of its bounds. */
+export interface VariableInfo {
+  readonly name: string;
+  readonly kind: 'length' | 'fraction';
+  /** 'nm' or 'ML' for lengths; '' for fractions. */
+  readonly unit: 'nm' | 'ML' | '';
+  readonly from: number;
+  readonly to: number;
+  readonly value: number | undefined;
+}
+
+function variableValue(v: VariableSpec, key: 'from' | 'to' | 'value', name: string): { x: number; unit: 'nm' | 'ML' | '' } {
+  const raw = v[key] as string | number;
+  const q = splitQuantity(raw);
+  if (!q) throw new InputError('bad-value', `vary.${name}.${key}: expected a number or a length, got ${JSON.stringify(raw)}`, `vary.${name}.${key}`);
+  if (q.unit === '') return { x: q.value, unit: '' };
+  const len = parseLength(raw);
+  if (typeof len === 'string') throw new InputError('bad-value', `vary.${name}.${key}: ${len}`, `vary.${name}.${key}`);
+  return 'ml' in len ? { x: len.ml, unit: 'ML' } : { x: len.nm, unit: 'nm' };
+}
+
+/** The spec's free variables with their kinds and bounds, in declaration order. */
+export function variablesOf(spec: Spec): readonly VariableInfo[] {
+  return Object.entries(spec.vary ?? {}).map(([name, v]) => {
+    const from = variableValue(v, 'from', name);
+    const to = variableValue(v, 'to', name);
+    const value = v.value === undefined ? undefined : variableValue(v, 'value', name);
+    const unit = from.unit;
+    if (to.unit !== unit || (value && value.unit !== unit)) {
+      throw new InputError('bad-value', `vary.${name}: bounds and value must share one unit, got "${v.from}", "${v.to}"${v.value !== undefined ? `, "${v.value}"` : ''}; write all in nm, all in ML or all as fractions`, `vary.${name}`);
+    }
+    if (!(from.x < to.x)) throw new InputError('bad-value', `vary.${name}: "from" must be below "to", got ${v.from} and ${v.to}; swap them`, `vary.${name}`);
+    if (value && (value.x < from.x || value.x > to.x)) throw new InputError('bad-value', `vary.${name}.value: ${v.value} lies outside [${v.from}, ${v.to}]; move it inside or widen the bounds`, `vary.${name}.value`);
+    const kind = unit === '' ? 'fraction' : 'length';
+    if (kind === 'fraction' && (from.x < 0 || to.x > 1)) throw new InputError('bad-value', `vary.${name}: a fraction must lie in [0, 1], got [${from.x}, ${to.x}]; give lengths a unit (nm, Å or ML)`, `vary.${name}`);
+    if (kind === 'length' && from.x <= 0) throw new InputError('bad-value', `vary.${name}.from: a thickness must be positive, got ${v.from}`, `vary.${name}.from`);
+    return { name, kind, unit, from: from.x, to: to.x, value: value?.x };
+  });
+}
+
+/** The nominal variable values of a spec (each `value`), or an error naming the first one missing. */
+export function nominalVariables(spec: Spec): Record<string, number> {
+  const out: Record<string, number> = {};
+  for (const v of variablesOf(spec)) {
+    if (v.value === undefined) throw new InputError('unknown-variable', `vary.${v.name}: has no value to solve at; add "value:" inside its bounds, or run "wellsmith design" to choose it`, `vary.${v.name}`);
+    out[v.name] = v.value;
+  }
+  return out;
+}
+
+const RESERVED = new Set(['material', 'thickness', 'label']);
+
+function lookupVariable(name: string, vars: readonly VariableInfo[], values: Readonly<Record<string, number>>, field: string, want: VariableInfo['kind']): { value: number; info: VariableInfo } {
+  const info = vars.find((v) => v.name === name);
+  if (!info) {
+    const known = vars.map((v) => v.name).join(', ');
+    throw new InputError('unknown-variable', `${field}: unknown variable "${name}"; ${known ? `declared variables are ${known}` : 'declare it under "vary:" with bounds'}`, field);
+  }
+  if (info.kind !== want) throw new InputError('bad-value', `${field}: variable "${name}" is a ${info.kind} but a ${want} is needed here; give it ${want === 'length' ? 'bounds with a unit (nm or ML)' : 'bounds without a unit'}`, field);
+  const value = values[name];
+  if (value === undefined || !Number.isFinite(value)) throw new InputError('unknown-variable', `${field}: variable "${name}" has no value; give vary.${name}.value or solve a design`, field);
+  return { value, info };
+}
+
+interface Context {
+  readonly spec: Spec;
+  readonly vars: readonly VariableInfo[];
+  readonly values: Readonly<Record<string, number>>;
+  readonly temperature_K: number;
+  readonly substrate: Alloy | null;
+}
+
+function compositionOf(layer: LayerSpec, i: number, ctx: Context): LayerComposition {
+  const field = `stack[${i}]`;
+  const custom = ctx.spec.materials?.[layer.material];
+  const fractionKeys = Object.keys(layer).filter((k) => !RESERVED.has(k));
+  if (custom) {
+    if (fractionKeys.length > 0) throw new InputError('bad-value', `${field}.${fractionKeys[0]}: custom material "${layer.material}" takes no fractions; remove it`, `${field}.${fractionKeys[0]}`);
+    return { kind: 'custom', name: layer.material };
+  }
+  if (fractionKeys.length === 0) return { kind: 'alloy', alloy: parseFormulaAt(layer.material, `${field}.material`) };
+  const start: Record<string, number> = {};
+  const end: Record<string, number> = {};
+  let graded = false;
+  for (const key of fractionKeys) {
+    const raw = (layer as Record<string, unknown>)[key];
+    const f = `${field}.${key}`;
+    let a: number;
+    let b: number;
+    if (typeof raw === 'number') a = b = raw;
+    else if (typeof raw === 'string') a = b = lookupVariable(raw, ctx.vars, ctx.values, f, 'fraction').value;
+    else {
+      const g = raw as { from: number; to: number };
+      a = g.from; b = g.to; graded = true;
+    }
+    for (const x of [a, b]) if (!(x >= 0 && x <= 1)) throw new InputError('bad-value', `${f}: a fraction must lie in [0, 1], got ${x}`, f);
+    start[key] = a;
+    end[key] = b;
+  }
+  const from = alloyAt(layer.material, start, `${field}.material`);
+  if (!graded) return { kind: 'alloy', alloy: from };
+  return { kind: 'graded', from, to: alloyAt(layer.material, end, `${field}.material`) };
+}
+
+function withField<T>(field: string, f: () => T): T {
+  try {
+    return f();
+  } catch (e) {
+    if (e instanceof InputError && e.field === undefined) throw new InputError(e.code, `${field}: ${e.message}`, field);
+    throw e;
+  }
+}
+
+const parseFormulaAt = (text: string, field: string): Alloy => withField(field, () => parseFormula(text));
+const alloyAt = (name: string, fractions: Record<string, number>, field: string): Alloy => withField(field, () => alloyFromName(name, fractions));
+
+/** Mixes two alloys linearly: the composition at fraction t of a graded layer. */
+export function mixAlloys(a: Alloy, b: Alloy, t: number): Alloy {
+  const mix = (p: Readonly<Record<string, number>>, q: Readonly<Record<string, number>>): Record<string, number> => {
+    const out: Record<string, number> = {};
+    for (const k of new Set([...Object.keys(p), ...Object.keys(q)])) out[k] = (1 - t) * (p[k] ?? 0) + t * (q[k] ?? 0);
+    return out;
+  };
+  return { III: mix(a.III, b.III), V: mix(a.V, b.V) };
+}
+
+function num(raw: string | number | undefined, parse: (x: string | number) => number | string, field: string, fallback: number): number {
+  if (raw === undefined) return fallback;
+  const v = parse(raw);
+  if (typeof v === 'string') throw new InputError('bad-value', `${field}: ${v}`, field);
+  return v;
+}
+
+/** Resolves a material (alloy or custom) at the spec's temperature, strained on the substrate. */
+export function resolveComposition(spec: Spec, alloyOrCustom: Alloy | string, temperature_K: number, substrate: Alloy | null, field: string): ResolvedMaterial {
+  if (typeof alloyOrCustom === 'string') {
+    const def = spec.materials![alloyOrCustom]!;
+    const f = `materials.${alloyOrCustom}`;
+    const lattice = def.lattice === undefined ? undefined : parseLength(def.lattice);
+    if (typeof lattice === 'string' || (lattice && 'ml' in lattice)) throw new InputError('bad-value', `${f}.lattice: expected a length in nm or Å, got ${JSON.stringify(def.lattice)}`, `${f}.lattice`);
+    return withField(f, () => customMaterial({
+      name: alloyOrCustom,
+      Ec: num(def.Ec, parseEnergy, `${f}.Ec`, NaN),
+      Ev: num(def.Ev, parseEnergy, `${f}.Ev`, NaN),
+      me: def.me, mhh: def.mhh, mlh: def.mlh,
+      ...(def.mhh_inplane !== undefined ? { mhh_par: def.mhh_inplane } : {}),
+      ...(def.mlh_inplane !== undefined ? { mlh_par: def.mlh_inplane } : {}),
+      ...(lattice ? { a_nm: lattice.nm } : {}),
+    }));
+  }
+  return withField(field, () => resolveMaterial(alloyOrCustom, { temperature_K, substrate }));
+}
+
+/**
+ * Growth errors applied while building a structure (tolerance analysis): per-layer thickness
+ * errors in monolayers, per-layer composition errors, one growth-rate scale for every layer, and
+ * a temperature offset. A composition error moves the layer's mixed fraction: the first mixed
+ * group-III element (in print order In, Al, Ga) gains Δx and its partner loses it, or the first
+ * mixed group-V element when group III is pure; binaries and custom materials have none.
+ */
+export interface Perturbation {
+  readonly thickness_ML?: readonly number[];
+  readonly composition?: readonly number[];
+  /** Multiplies every thickness: 1.01 is a growth rate 1 % high. */
+  readonly thicknessScale?: number;
+  readonly temperature_K?: number;
+}
+
+/** The alloy with its mixed fraction moved by dx (see Perturbation), clamped to [0, 1]. */
+export function shiftComposition(alloy: Alloy, dx: number): Alloy {
+  const shift = (side: Readonly<Record<string, number>>): Record<string, number> | null => {
+    const mixed = Object.keys(side).filter((k) => side[k]! > 0 && side[k]! < 1);
+    if (mixed.length < 2) return null;
+    const [a, b] = ORDER.filter((e) => mixed.includes(e)).concat(mixed.filter((e) => !ORDER.includes(e))) as [string, string];
+    const d = Math.min(Math.max(dx, -side[a]!), side[b]!);
+    return { ...side, [a]: side[a]! + d, [b]: side[b]! - d };
+  };
+  const III = shift(alloy.III);
+  if (III) return { III, V: alloy.V };
+  const V = shift(alloy.V);
+  return V ? { III: alloy.III, V } : alloy;
+}
+
+/** Print order of elements, for choosing which fraction a composition error moves. */
+const ORDER: readonly string[] = [...GROUP_III, ...GROUP_V];
+
+function perturbComposition(c: LayerComposition, dx: number): LayerComposition {
+  if (dx === 0 || c.kind === 'custom') return c;
+  return c.kind === 'alloy' ? { kind: 'alloy', alloy: shiftComposition(c.alloy, dx) } : { kind: 'graded', from: shiftComposition(c.from, dx), to: shiftComposition(c.to, dx) };
+}
+
+/** Builds the Structure of a spec at the given variable values, optionally with growth errors. */
+export function buildStructure(spec: Spec, values: Readonly<Record<string, number>>, perturbation: Perturbation = {}): Structure {
+  const vars = variablesOf(spec);
+  const nominalT = num(spec.temperature, parseTemperature, 'temperature', 300);
+  const temperature_K = nominalT + (perturbation.temperature_K ?? 0);
+  if (!(temperature_K >= 0) || !Number.isFinite(temperature_K)) throw new InputError('bad-value', `temperature: must be 0 K or above, got ${spec.temperature}; give it in K, e.g. "300 K"`, 'temperature');
+  const field_kV_per_cm = num(spec.field, parseField, 'field', 0);
+  const substrate = spec.substrate === undefined ? null : parseFormulaAt(spec.substrate, 'substrate');
+  if (substrate) resolveComposition(spec, substrate, temperature_K, null, 'substrate');
+  const ctx: Context = { spec, vars, values, temperature_K, substrate };
+
+  const share = spec.offsets?.conduction_share;
+  let reference: ResolvedMaterial | null = null;
+  let offsetRule: OffsetRule = { kind: 'absolute', source: `valence-band offsets of ${PARAMETER_SET}` };
+  if (share !== undefined) {
+    const refText = spec.offsets?.reference ?? spec.substrate;
+    if (refText === undefined) throw new InputError('bad-value', 'offsets.reference: the conduction-share rule needs a reference material; give offsets.reference or a substrate', 'offsets.reference');
+    const refAlloy = spec.materials?.[refText] ? refText : parseFormulaAt(refText, 'offsets.reference');
+    reference = resolveComposition(spec, refAlloy, temperature_K, null, 'offsets.reference');
+    offsetRule = { kind: 'conduction-share', share, reference: reference.formula };
+  }
+
+  const bandsOf = (source: Alloy | string, field: string): { bands: LayerBands; material: ResolvedMaterial } => {
+    const m = resolveComposition(spec, source, temperature_K, typeof source === 'string' ? null : substrate, field);
+    let { Ec, Ehh, Elh } = m;
+    if (reference && typeof source !== 'string') {
+      // Share rule: place the unstrained edges by Q·ΔEg about the reference, then add this layer's strain shifts.
+      const free = resolveComposition(spec, source, temperature_K, null, field);
+      const dEg = free.EgG - reference.EgG;
+      const EvRef = Math.max(reference.Ehh, reference.Elh);
+      const EcFree = reference.Ec + share! * dEg;
+      const EvFree = EvRef - (1 - share!) * dEg;
+      const EvFreeTable = Math.max(free.Ehh, free.Elh);
+      Ec = EcFree + (m.Ec - free.Ec);
+      Ehh = EvFree + (m.Ehh - EvFreeTable);
+      Elh = EvFree + (m.Elh - EvFreeTable);
+    }
+    const gap = Ec - Math.max(Ehh, Elh);
+    const custom = typeof source === 'string' ? spec.materials![source]!.nonparabolicity : undefined;
+    const alpha = custom !== undefined ? num(custom, (x) => { const q = splitQuantity(x); return q ? q.value : `expected a number in 1/eV, got ${JSON.stringify(x)}`; }, `materials.${source as string}.nonparabolicity`, 0) : gap > 0 ? 1 / gap : 0;
+    return { material: m, bands: { Ec, Ehh, Elh, me: m.me, mhh_z: m.mhh_z, mlh_z: m.mlh_z, mhh_par: m.mhh_par, mlh_par: m.mlh_par, alpha } };
+  };
+
+  let total = 0;
+  const layers = spec.stack.map((layer, i): ResolvedLayer => {
+    const field = `stack[${i}]`;
+    const composition = perturbComposition(compositionOf(layer, i, ctx), perturbation.composition?.[i] ?? 0);
+    const mid = composition.kind === 'custom' ? composition.name : composition.kind === 'alloy' ? composition.alloy : mixAlloys(composition.from, composition.to, 0.5);
+    const centre = bandsOf(mid, `${field}.material`);
+    const bands = composition.kind === 'graded'
+      ? Array.from({ length: GRADE_SAMPLES }, (_, k) => bandsOf(mixAlloys(composition.from, composition.to, k / (GRADE_SAMPLES - 1)), `${field}.material`).bands)
+      : [centre.bands];
+
+    let length: Length;
+    const t = layer.thickness;
+    const tq = splitQuantity(t);
+    if (typeof t === 'string' && !tq) {
+      const { value, info } = lookupVariable(t.trim(), vars, ctx.values, `${field}.thickness`, 'length');
+      length = info.unit === 'ML' ? { ml: value } : { nm: value };
+    } else {
+      const parsed = parseLength(t);
+      if (typeof parsed === 'string') throw new InputError('bad-value', `${field}.thickness: ${parsed}`, `${field}.thickness`);
+      length = parsed;
+    }
+    const ml = centre.material.monolayer_nm;
+    const thickness_nm = (('ml' in length ? length.ml * ml : length.nm) + (perturbation.thickness_ML?.[i] ?? 0) * ml) * (perturbation.thicknessScale ?? 1);
+    if (!(thickness_nm > 0) || !Number.isFinite(thickness_nm)) throw new InputError('bad-value', `${field}.thickness: must be positive, got ${JSON.stringify(t)}${typeof t === 'string' && !tq ? ` = ${thickness_nm} nm` : ''}`, `${field}.thickness`);
+    total += thickness_nm;
+    const formula = composition.kind === 'custom' ? composition.name : composition.kind === 'alloy' ? formatFormula(composition.alloy) : `${formatFormula(composition.from)}→${formatFormula(composition.to)}`;
+    return {
+      index: i,
+      label: layer.label ?? `layer ${i + 1}`,
+      formula,
+      composition,
+      thickness_nm,
+      monolayers: thickness_nm / ml,
+      monolayer_nm: ml,
+      material: centre.material,
+      bands,
+    };
+  });
+  return {
+    title: spec.title ?? '',
+    substrate: substrate ? formatFormula(substrate) : null,
+    temperature_K,
+    field_kV_per_cm,
+    offsetRule,
+    layers,
+    variables: { ...values },
+    total_nm: total,
+  };
+}

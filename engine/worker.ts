@@ -1,0 +1,27 @@
+/**
+ * The pool's worker: requests and responses are plain data, a union on `type`; an error crosses
+ * the thread boundary as {name, code, message}.
+ */
+import { runStart, type StartOutcome, type StartTask } from './design/start.js';
+
+export type WorkerTask = StartTask;
+export type WorkerResult = StartOutcome;
+
+export type WorkerResponse =
+  | { readonly type: 'ok'; readonly value: WorkerResult }
+  | { readonly type: 'error'; readonly name: string; readonly code: string | undefined; readonly message: string };
+
+export function handle(task: WorkerTask): WorkerResult {
+  switch (task.type) {
+    case 'design-start': return runStart(task);
+  }
+}
+
+export default function work(task: WorkerTask): WorkerResponse {
+  try {
+    return { type: 'ok', value: handle(task) };
+  } catch (e) {
+    const err = e instanceof Error ? e : new Error(String(e));
+    return { type: 'error', name: err.name, code: (err as { code?: string }).code, message: err.message };
+  }
+}

@@ -1,0 +1,80 @@
+/** Pieces shared by the objective modules: reading quantities and scoring states that may be missing. */
+import { z } from 'zod';
+import { InputError } from '../engine/errors.js';
+import { bandOfLabel, findState, type SolveResult } from '../engine/solve.js';
+import { parseEnergy, parsePhotonEnergy } from '../engine/spec/units.js';
+import { HC_EV_NM, KB_EV_PER_K } from '../engine/constants.js';
+
+export const quantity = z.union([z.number(), z.string()]);
+export const weight = z.number().positive().optional().describe('Relative weight in the loss (default 1)');
+
+/** Checks a state label such as "e1" or "hh2". */
+export function checkStateLabel(label: string, field: string): void {
+  if (!bandOfLabel(label)) throw new InputError('bad-value', `${field}: "${label}" is not a state label; write e1, hh1, lh1, e2…`, field);
+}
+
+/** Checks a transition label "e1-hh1" / "e1-e2" and returns its two state labels. */
+export function transitionStates(label: string, field: string): [string, string] {
+  const parts = label.split('-');
+  if (parts.length !== 2 || !bandOfLabel(parts[0]!) || !bandOfLabel(parts[1]!)) {
+    throw new InputError('bad-value', `${field}: "${label}" is not a transition; write e1-hh1, e1-lh1 or e1-e2`, field);
+  }
+  const a = bandOfLabel(parts[0]!)!;
+  const b = bandOfLabel(parts[1]!)!;
+  if (a.band !== 'electron') throw new InputError('bad-value', `${field}: a transition starts from an electron state, got "${label}"; write e1-hh1 or e1-e2`, field);
+  if (b.band === 'electron' && b.index <= a.index) throw new InputError('bad-value', `${field}: an intersubband transition goes upwards, got "${label}"; write e${b.index}-e${a.index}`, field);
+  return [parts[0]!, parts[1]!];
+}
+
+/** Energy of a state (eV, absolute) or, when it is not bound, its band's continuum edge. */
+export function stateEnergy(r: SolveResult, label: string): { energy: number; missing: boolean } {
+  const s = findState(r, label);
+  if (s) return { energy: s.energy_eV, missing: false };
+  return { energy: r.bands[bandOfLabel(label)!.band].barrier_eV, missing: true };
+}
+
+/** Photon energy of a transition (eV), with missing states at their continuum edges. */
+export function transitionEnergy(r: SolveResult, label: string): { energy: number; missing: boolean } {
+  const [a, b] = label.split('-') as [string, string];
+  const sa = stateEnergy(r, a);
+  const sb = stateEnergy(r, b);
+  return { energy: Math.abs(sb.energy - sa.energy), missing: sa.missing || sb.missing };
+}
+
+export function energyOf(raw: string | number, field: string): number {
+  const v = parseEnergy(raw);
+  if (typeof v === 'string') throw new InputError('bad-value', `${field}: ${v}`, field);
+  return v;
+}
+
+/** A photon quantity as the user wrote it: goal in eV plus how to express values in the same unit. */
+export interface PhotonScale {
+  readonly goal_eV: number;
+  readonly unit: 'nm' | 'µm' | 'meV' | 'eV' | 'cm⁻¹';
+  /** Converts an energy (eV) to the user's unit. */
+  readonly fromEv: (eV: number) => number;
+}
+
+export function photonScale(raw: string | number, field: string): PhotonScale {
+  const p = parsePhotonEnergy(raw);
+  if (typeof p === 'string') throw new InputError('bad-value', `${field}: ${p}`, field);
+  const text = String(raw);
+  if (p.kind === 'wavelength') {
+    return /µm|μm|um/.test(text)
+      ? { goal_eV: p.eV, unit: 'µm', fromEv: (e) => HC_EV_NM / e / 1000 }
+      : { goal_eV: p.eV, unit: 'nm', fromEv: (e) => HC_EV_NM / e };
+  }
+  if (p.kind === 'wavenumber') return { goal_eV: p.eV, unit: 'cm⁻¹', fromEv: (e) => (e * 1e7) / HC_EV_NM };
+  return /meV/.test(text) ? { goal_eV: p.eV, unit: 'meV', fromEv: (e) => e * 1000 } : { goal_eV: p.eV, unit: 'eV', fromEv: (e) => e };
+}
+
+/** An energy that may be written as a multiple of kT ("3 kT") at the structure's temperature; eV. */
+export function energyOrKT(raw: string | number, temperature_K: number, field: string): number {
+  const m = typeof raw === 'string' ? /^\s*([\d.eE+-]+)\s*kT\s*$/.exec(raw) : null;
+  if (m) {
+    const n = Number(m[1]);
+    if (!Number.isFinite(n)) throw new InputError('bad-value', `${field}: expected e.g. "3 kT", got ${JSON.stringify(raw)}`, field);
+    return n * KB_EV_PER_K * temperature_K;
+  }
+  return energyOf(raw, field);
+}

@@ -1,0 +1,73 @@
+/** Transition targets: an interband (e_i–hh_j, e_i–lh_j) or intersubband (e_i–e_j) line at an energy, wavelength or wavenumber, within a window. */
+import { z } from 'zod';
+import { InputError } from '../engine/errors.js';
+import { MISSING_STATE_PENALTY, type Objective } from './types.js';
+import { photonScale, quantity, transitionEnergy, transitionStates, weight } from './common.js';
+import { parseLength, parseEnergy, splitQuantity } from '../engine/spec/units.js';
+
+const schema = z.object({
+  transition: z.string().describe('e1-hh1, e1-lh1, e1-e2 …'),
+  energy: quantity.optional().describe('Goal as a photon energy ("1.27 eV", "120 meV")'),
+  wavelength: quantity.optional().describe('Goal as a wavelength ("976 nm", "9 µm")'),
+  wavenumber: quantity.optional().describe('Goal as a wavenumber ("1100 cm-1")'),
+  within: quantity.describe('Half-width of the acceptance window, in the goal\'s kind of unit'),
+  weight,
+}).strict();
+export type TransitionTarget = z.infer<typeof schema>;
+
+function goalOf(t: TransitionTarget): { key: 'energy' | 'wavelength' | 'wavenumber'; raw: string | number } {
+  const keys = (['energy', 'wavelength', 'wavenumber'] as const).filter((k) => t[k] !== undefined);
+  if (keys.length !== 1) throw new InputError('bad-value', `give exactly one of energy, wavelength or wavenumber for transition ${t.transition}, got ${keys.length === 0 ? 'none' : keys.join(' and ')}`);
+  return { key: keys[0]!, raw: t[keys[0]!]! };
+}
+
+/** The window half-width in the goal's unit. */
+function windowOf(t: TransitionTarget, unit: string, field: string): number {
+  const raw = t.within;
+  let w: number | string;
+  if (unit === 'nm' || unit === 'µm') {
+    const l = parseLength(raw);
+    w = typeof l === 'string' ? l : 'ml' in l ? 'a wavelength window takes nm or µm' : unit === 'µm' ? l.nm / 1000 : l.nm;
+  } else if (unit === 'cm⁻¹') {
+    const q = splitQuantity(raw);
+    w = q && /^(|cm-1|cm\^-1|cm⁻¹|\/cm)$/.test(q.unit) ? q.value : `expected a wavenumber window such as "20 cm-1", got ${JSON.stringify(raw)}`;
+  } else {
+    const e = parseEnergy(raw);
+    w = typeof e === 'string' ? e : unit === 'meV' ? e * 1000 : e;
+  }
+  if (typeof w === 'string') throw new InputError('bad-value', `${field}.within: ${w}`, `${field}.within`);
+  if (!(w > 0)) throw new InputError('bad-value', `${field}.within: must be positive, got ${JSON.stringify(raw)}`, `${field}.within`);
+  return w;
+}
+
+export const transitionObjective: Objective<TransitionTarget> = {
+  kind: 'transition',
+  description: 'a transition line (e1-hh1, e1-lh1, e1-e2…) at an energy, wavelength or wavenumber, within a window',
+  schema,
+  needsWavefunctions: () => false,
+  statesNeeded: (t) => t.transition.split('-'),
+  check: (t, field) => {
+    transitionStates(t.transition, `${field}.transition`);
+    const g = goalOf(t);
+    windowOf(t, photonScale(g.raw, `${field}.${g.key}`).unit, field);
+  },
+  evaluate: (t, r) => {
+    const g = goalOf(t);
+    const scale = photonScale(g.raw, g.key);
+    const within = windowOf(t, scale.unit, 'target');
+    const e = transitionEnergy(r, t.transition);
+    const achieved = scale.fromEv(e.energy);
+    const goal = scale.fromEv(scale.goal_eV);
+    const residual = (achieved - goal) / within;
+    return {
+      label: `${t.transition} ${g.key}`,
+      role: 'target',
+      achieved: e.missing ? null : achieved,
+      goal,
+      unit: scale.unit,
+      residual: e.missing ? Math.sign(residual || 1) * (Math.abs(residual) + MISSING_STATE_PENALTY) : residual,
+      weight: t.weight ?? 1,
+      satisfied: !e.missing && Math.abs(residual) <= 1,
+    };
+  },
+};
