@@ -92,18 +92,31 @@ function describeVariables(spec: Spec, variables: readonly VariableInfo[], value
   });
 }
 
-/** Ranked, growable designs for a spec's targets. */
-export async function design(spec: Spec, options: DesignOptions): Promise<DesignResult> {
+/** The pool tasks of a design run: one Nelder–Mead start per Latin-hypercube point (deterministic in the seed). */
+export function designTasks(spec: Spec, options: Pick<DesignOptions, 'starts' | 'seed' | 'maxEvaluations' | 'compositionStep'>): StartTask[] {
   const problem = prepareDesign(spec);
   const bounds = problem.variables.map((v) => [v.from, v.to] as const);
   const x0s = startPoints('latin-hypercube', options.starts, bounds, options.seed);
-  const tasks: StartTask[] = x0s.map((x0, index) => ({ type: 'design-start', spec, index, x0, maxEvaluations: options.maxEvaluations, compositionStep: options.compositionStep }));
-  const outcomes = (await runTasks(tasks, { workers: options.workers, ...(options.onProgress ? { onProgress: options.onProgress } : {}) })) as StartOutcome[];
+  return x0s.map((x0, index) => ({ type: 'design-start', spec, index, x0, maxEvaluations: options.maxEvaluations, compositionStep: options.compositionStep }));
+}
 
+/** Ranked, growable designs for a spec's targets. */
+export async function design(spec: Spec, options: DesignOptions): Promise<DesignResult> {
+  const tasks = designTasks(spec, options);
+  const outcomes = (await runTasks(tasks, { workers: options.workers, ...(options.onProgress ? { onProgress: options.onProgress } : {}) })) as StartOutcome[];
+  return rankDesigns(spec, outcomes, options);
+}
+
+/**
+ * Ranking of finished starts (from one run, or gathered across a resumed campaign): drop
+ * unevaluable and duplicate designs, order by loss then start index, re-solve the top K in full.
+ */
+export function rankDesigns(spec: Spec, outcomes: readonly StartOutcome[], options: Pick<DesignOptions, 'top' | 'seed' | 'starts'>): DesignResult {
+  const problem = prepareDesign(spec);
   const evaluations = outcomes.reduce((a, o) => a + o.evaluations, 0);
   const failures = outcomes.reduce((a, o) => a + o.failures, 0);
   const seen = new Set<string>();
-  const unique = outcomes
+  const unique = [...outcomes]
     .filter((o) => Number.isFinite(o.snapped.loss))
     .sort((a, b) => a.snapped.loss - b.snapped.loss || a.index - b.index)
     .filter((o) => {
