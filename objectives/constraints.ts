@@ -35,16 +35,16 @@ export const constraintObjective: Objective<ConstraintTarget> = {
     if (t.constraint === 'critical_thickness') {
       let worst = -Infinity;
       for (const l of layers) worst = Math.max(worst, l.thickness_nm / l.material.criticalThickness_nm - 1);
-      return { label: 'thickness / critical thickness − 1 (worst layer)', role: 'constraint', achieved: worst, goal: 0, unit: '', residual: Math.max(0, worst) * BREACH_SCALE, weight: 1, satisfied: worst <= 0 };
+      return { label: 'below critical thickness', role: 'constraint', achieved: worst, goal: 0, unit: '', residual: Math.max(0, worst) * BREACH_SCALE, weight: 1, satisfied: worst <= 0 };
     }
     if (t.constraint === 'direct_gap') {
       const chosen = t.layers ? layers.filter((l) => t.layers!.includes(l.index)) : layers;
       let deficit = 0;
       for (const l of chosen) deficit = Math.max(deficit, l.material.EgG - Math.min(l.material.EgX, l.material.EgL));
-      return { label: 'indirect-gap excess (worst layer)', role: 'constraint', achieved: deficit * 1000, goal: 0, unit: 'meV', residual: deficit > 0 ? 1 + deficit / 0.01 : 0, weight: 1, satisfied: deficit <= 0 };
+      return { label: 'direct gap', role: 'constraint', achieved: deficit * 1000, goal: 0, unit: 'meV', residual: deficit > 0 ? 1 + deficit / 0.01 : 0, weight: 1, satisfied: deficit <= 0 };
     }
     const limit = (parseLength(t.at_most!) as { nm: number }).nm;
     const excess = r.structure.total_nm / limit - 1;
-    return { label: 'total thickness', role: 'constraint', achieved: r.structure.total_nm, goal: limit, unit: 'nm', residual: Math.max(0, excess) * BREACH_SCALE, weight: 1, satisfied: excess <= 0 };
+    return { label: 'total thickness limit', role: 'constraint', achieved: r.structure.total_nm, goal: limit, unit: 'nm', residual: Math.max(0, excess) * BREACH_SCALE, weight: 1, satisfied: excess <= 0 };
   },
 };

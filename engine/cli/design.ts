@@ -32,6 +32,13 @@ const variableCell = (v: Design['variables'][number]): string =>
 const achievedCell = (e: Design['evaluations'][number]): string =>
   e.achieved === null ? 'missing' : `${sig(e.achieved, 6)}${e.unit ? ` ${e.unit}` : ''}`;
 
+/** A target's cell: achieved value and residual; a figure's value; a constraint's verdict. */
+function evaluationCell(e: Design['evaluations'][number]): string {
+  if (e.role === 'figure') return achievedCell(e);
+  if (e.role === 'constraint') return e.satisfied ? 'holds' : `violated (${achievedCell(e)})`;
+  return `${achievedCell(e)} (${e.residual >= 0 ? '+' : ''}${e.residual.toFixed(2)})${e.satisfied ? '' : ' ✗'}`;
+}
+
 /** Design JSON: the spec's variables, the resolved stack and the same transitions[] shape as solve. */
 export function designJson(r: DesignResult): unknown {
   return {
@@ -60,7 +67,7 @@ export function describeDesign(r: DesignResult, spec: Spec): string {
   const header = ['rank', ...first.variables.map((v) => (v.kind === 'fraction' ? v.name : `${v.name} (nm / ML)`)),
     ...first.evaluations.map((e) => e.label), 'loss', 'h_c margin'];
   const rows = r.designs.map((d) => [String(d.rank), ...d.variables.map((v) => `${variableCell(v)}${v.atBound ? ` (${v.atBound} bound)` : ''}`),
-    ...d.evaluations.map((e) => (e.role === 'figure' ? achievedCell(e) : `${achievedCell(e)} (${e.residual >= 0 ? '+' : ''}${e.residual.toFixed(2)})${e.satisfied ? '' : ' ✗'}`)),
+    ...d.evaluations.map(evaluationCell),
     sig(d.loss, 3), `${fixed(d.criticalMargin * 100, 0)} %`]);
   const lines = [spec.title ? `${spec.title}\n` : '', `Designs (${r.starts} starts, seed ${r.seed}, ${r.evaluations} solves${r.failures ? `, ${r.failures} failed candidates` : ''}); residuals in window half-widths, |r| ≤ 1 meets the target`, table(header, rows)];
   if (r.status !== 'ok') {

@@ -24,16 +24,22 @@ export function describeStructure(s: Structure): string {
   return `${head}\n${table(['#', 'layer', 'material', 'thickness nm', 'ML', 'Ec eV', 'Ehh eV', 'Elh eV', 'ε∥ %', 'h_c nm'], rows)}`;
 }
 
+/** Interband lines weaker than this are left out of the human table. */
+const WEAK_OVERLAP2 = 0.01;
+
 export function describeSolve(r: SolveResult): string {
   const out: string[] = [];
   if (r.structure.title) out.push(r.structure.title, '');
   out.push(describeStructure(r.structure), '');
   const stateRows = BANDS.flatMap((b) => r.bands[b].states.map((s) => [b.replace('_', ' '), s.label, fixed(s.energy_eV, 5), fixed(s.confinement_meV, 2), s.bound ? 'yes' : 'quasi', fixed(s.mass_inplane, 4)]));
   out.push('States (energies on the absolute scale; confinement from the band extremum)', table(['band', 'state', 'energy eV', 'confinement meV', 'bound', 'm∥ m0'], stateRows), '');
+  // The table keeps the lines a designer reads; --json lists every pair.
   const inter = r.transitions.filter((t) => t.kind === 'interband');
-  if (inter.length > 0) out.push('Interband transitions', table(['transition', 'energy eV', 'wavelength nm', 'overlap²'], inter.map((t) => [t.label, fixed(t.energy_eV, 5), fixed(t.wavelength_nm, 2), fixed(t.overlap2, 4)])), '');
-  const isb = r.transitions.filter((t) => t.kind === 'intersubband');
-  if (isb.length > 0) out.push('Intersubband transitions', table(['transition', 'energy meV', 'wavelength µm', 'wavenumber cm⁻¹', 'dipole nm', 'osc. strength'], isb.map((t) => [t.label, fixed(t.energy_eV * 1000, 2), fixed(t.wavelength_nm / 1000, 3), fixed(t.wavenumber_per_cm, 1), fixed(t.dipole_nm, 4), fixed(t.oscillator_strength, 4)])), '');
+  const strong = inter.filter((t) => t.overlap2 >= WEAK_OVERLAP2);
+  const hidden = inter.length - strong.length;
+  if (inter.length > 0) out.push(`Interband transitions (overlap² ≥ ${WEAK_OVERLAP2}${hidden ? `; ${hidden} weaker ones in --json` : ''})`, table(['transition', 'energy eV', 'wavelength nm', 'overlap²'], strong.map((t) => [t.label, fixed(t.energy_eV, 5), fixed(t.wavelength_nm, 2), fixed(t.overlap2, 4)])), '');
+  const isb = r.transitions.filter((t) => t.kind === 'intersubband' && t.label.startsWith('e1-'));
+  if (isb.length > 0) out.push('Intersubband transitions from e1 (all pairs in --json)', table(['transition', 'energy meV', 'wavelength µm', 'wavenumber cm⁻¹', 'dipole nm', 'osc. strength'], isb.map((t) => [t.label, fixed(t.energy_eV * 1000, 2), fixed(t.wavelength_nm / 1000, 3), fixed(t.wavenumber_per_cm, 1), fixed(t.dipole_nm, 4), fixed(t.oscillator_strength, 4)])), '');
   const dosRows = BANDS.flatMap((b) => r.dos.bands[b].map((d) => [d.label, fixed(d.edge_eV, 5), fixed(d.mass_inplane, 4), sig(d.step_per_cm2_per_eV, 4)]));
   out.push(`2-D density of states: one step per subband (${r.dos.unit})`, table(['subband', 'edge eV', 'm∥ m0', 'step cm⁻² eV⁻¹'], dosRows));
   if (r.status !== 'ok') out.push('', `status: ${r.status}: ${r.message}`);

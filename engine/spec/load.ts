@@ -54,7 +54,8 @@ function locator(doc: Document, lines: LineCounter): (field: string) => number |
   };
 }
 
-function describeIssue(issue: z.core.$ZodIssue): string {
+/** A zod issue as "field: what was wrong, got …" (shared by every file format wellsmith reads). */
+export function describeIssue(issue: z.core.$ZodIssue): string {
   const field = fieldName(issue.path);
   switch (issue.code) {
     case 'unrecognized_keys':
@@ -82,8 +83,8 @@ export function validateSpec(value: unknown, locate: (field: string) => number |
   throw new InputError('schema', `${describeIssue(first)}${line ? ` (line ${line})` : ''}${more}`, field);
 }
 
-/** Parses spec text (YAML, of which JSON is a subset). */
-export function parseSpecText(text: string, origin = '<inline>'): LoadedSpec {
+/** YAML (or JSON) text -> plain value and a field-path -> line lookup, for any file wellsmith reads. */
+export function parseYamlText(text: string, origin: string): { readonly value: unknown; readonly locate: (field: string) => number | undefined } {
   const lines = new LineCounter();
   const doc = parseDocument(text, { lineCounter: lines, prettyErrors: true, uniqueKeys: true });
   if (doc.errors.length > 0) {
@@ -91,8 +92,12 @@ export function parseSpecText(text: string, origin = '<inline>'): LoadedSpec {
     const line = e.linePos?.[0]?.line;
     throw new InputError('parse', `${origin}: not valid YAML/JSON${line ? ` at line ${line}` : ''}: ${(e.message.split('\n')[0] ?? '').replace(/ at line \d+, column \d+:?$/, '')}`);
   }
-  const locate = locator(doc, lines);
-  const value: unknown = doc.toJS({ maxAliasCount: 100 });
+  return { value: doc.toJS({ maxAliasCount: 100 }) as unknown, locate: locator(doc, lines) };
+}
+
+/** Parses spec text (YAML, of which JSON is a subset). */
+export function parseSpecText(text: string, origin = '<inline>'): LoadedSpec {
+  const { value, locate } = parseYamlText(text, origin);
   if (value === null || typeof value !== 'object' || Array.isArray(value)) {
     throw new InputError('schema', `${origin}: a spec must be a mapping with at least a "stack" list, got ${value === null ? 'an empty file' : Array.isArray(value) ? 'a list' : typeof value}`);
   }

@@ -1,0 +1,121 @@
+/**
+ * Monte Carlo growth yield. Each sample draws, from its own stream Random(deriveSeed(seed, i)),
+ * a whole-monolayer error for every layer, an alloy-fraction error for every layer (applied where
+ * the layer has a mixed fraction) and one growth-rate error; builds, solves and scores that
+ * structure. Samples run in batches on the worker pool; because every sample's stream depends
+ * only on (seed, index), results are identical for any worker count or batch size.
+ */
+import { deriveSeed, Random } from '../random.js';
+import type { Spec } from '../spec/schema.js';
+import type { Perturbation } from '../structure.js';
+import { measure, prepareTolerance, type Measurement } from './measure.js';
+
+/** Per-layer monolayer error model: a table of probabilities, or a Gaussian σ (ML) rounded to whole ML. */
+export type MonolayerModel =
+  | { readonly kind: 'table'; readonly table: readonly { readonly ml: number; readonly p: number }[] }
+  | { readonly kind: 'sigma'; readonly sigma: number };
+
+export interface GrowthModel {
+  readonly monolayers: MonolayerModel;
+  /** σ of each layer's alloy-fraction error (fraction). */
+  readonly compositionSigma: number;
+  /** σ of the growth-rate error (percent), one draw per sample for every layer. */
+  readonly rateSigmaPercent: number;
+}
+
+export const DEFAULT_GROWTH: GrowthModel = {
+  monolayers: { kind: 'table', table: [{ ml: -1, p: 0.15 }, { ml: 0, p: 0.7 }, { ml: 1, p: 0.15 }] },
+  compositionSigma: 0.005,
+  rateSigmaPercent: 1,
+};
+
+function drawMonolayers(r: Random, m: MonolayerModel): number {
+  if (m.kind === 'sigma') return m.sigma === 0 ? 0 : Math.round(m.sigma * r.normal());
+  const u = r.uniform();
+  let acc = 0;
+  for (const row of m.table) {
+    acc += row.p;
+    if (u < acc) return row.ml;
+  }
+  return m.table[m.table.length - 1]!.ml;
+}
+
+/**
+ * The growth errors of sample `index`: per layer (in stack order) one ML draw then one
+ * composition draw, then the growth-rate draw. A σ of 0 consumes no normal deviate's effect
+ * (the draw is multiplied by 0), so zero-σ samples are the nominal structure exactly.
+ */
+export function samplePerturbation(seed: number, index: number, layers: number, model: GrowthModel): Perturbation {
+  const r = new Random(deriveSeed(seed, index));
+  const thickness_ML: number[] = [];
+  const composition: number[] = [];
+  for (let i = 0; i < layers; i++) {
+    thickness_ML.push(drawMonolayers(r, model.monolayers));
+    composition.push(model.compositionSigma * r.normal());
+  }
+  return { thickness_ML, composition, thicknessScale: 1 + (model.rateSigmaPercent * r.normal()) / 100 };
+}
+
+export interface BatchTask {
+  readonly type: 'tolerance-batch';
+  readonly spec: Spec;
+  readonly values: Readonly<Record<string, number>>;
+  readonly model: GrowthModel;
+  readonly seed: number;
+  readonly first: number;
+  readonly count: number;
+}
+
+export interface BatchOutcome {
+  readonly type: 'tolerance-batch';
+  readonly first: number;
+  readonly samples: readonly Measurement[];
+}
+
+/** Runs samples first … first + count − 1 (the pool's unit of work). */
+export function runBatch(task: BatchTask): BatchOutcome {
+  const problem = prepareTolerance(task.spec, task.values);
+  const layers = task.spec.stack.length;
+  const samples: Measurement[] = [];
+  for (let i = task.first; i < task.first + task.count; i++) samples.push(measure(problem, samplePerturbation(task.seed, i, layers, task.model)));
+  return { type: 'tolerance-batch', first: task.first, samples };
+}
+
+/** Splits N samples into pool tasks of at most `size` samples each. */
+export function batchTasks(spec: Spec, values: Readonly<Record<string, number>>, model: GrowthModel, seed: number, samples: number, size: number): BatchTask[] {
+  const out: BatchTask[] = [];
+  for (let first = 0; first < samples; first += size) out.push({ type: 'tolerance-batch', spec, values, model, seed, first, count: Math.min(size, samples - first) });
+  return out;
+}
+
+export interface Distribution {
+  /** Samples with a finite value (missing states are excluded). */
+  readonly n: number;
+  readonly mean: number;
+  /** Sample standard deviation (n − 1 in the denominator). */
+  readonly sigma: number;
+  readonly p5: number;
+  readonly p50: number;
+  readonly p95: number;
+}
+
+/**
+ * Percentile by linear interpolation between order statistics, x[(n−1)q] (definition 7 of
+ * R. J. Hyndman and Y. Fan, Am. Stat. 50, 361 (1996), the numpy default). Input sorted ascending.
+ */
+export function quantile(sorted: readonly number[], q: number): number {
+  if (sorted.length === 0) return NaN;
+  const h = (sorted.length - 1) * q;
+  const lo = Math.floor(h);
+  const hi = Math.min(lo + 1, sorted.length - 1);
+  return sorted[lo]! + (h - lo) * (sorted[hi]! - sorted[lo]!);
+}
+
+/** Mean, σ and 5/50/95 % percentiles of the finite values. */
+export function distribution(values: readonly number[]): Distribution {
+  const v = values.filter(Number.isFinite).sort((a, b) => a - b);
+  const n = v.length;
+  const mean = n ? v.reduce((a, b) => a + b, 0) / n : NaN;
+  const sigma = n > 1 ? Math.sqrt(v.reduce((a, b) => a + (b - mean) ** 2, 0) / (n - 1)) : n === 1 ? 0 : NaN;
+  return { n, mean, sigma, p5: quantile(v, 0.05), p50: quantile(v, 0.5), p95: quantile(v, 0.95) };
+}
