@@ -33,9 +33,9 @@ export interface StartOutcome {
   readonly snapped: { readonly values: Readonly<Record<string, number>>; readonly loss: number };
 }
 
-/** NM stopping rule: simplex spread below 1e-4 in every variable (nm or fraction) and 1e-9 in the loss. */
-const X_TOLERANCE = 1e-4;
-const F_TOLERANCE = 1e-9;
+/** NM stopping rule: simplex spread below 1e-3 in every variable (nm or fraction: under the monolayer and composition lattices the design is snapped to) and 1e-6 in the loss (a thousandth of a window, squared). */
+const X_TOLERANCE = 1e-3;
+const F_TOLERANCE = 1e-6;
 
 export function runStart(task: StartTask): StartOutcome {
   const problem = prepareDesign(task.spec);
