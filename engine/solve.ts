@@ -233,8 +233,12 @@ export function solveStructure(structure: Structure, settings: SolverSettings = 
   };
 }
 
-/** Library entry point: solves a validated spec at its nominal variable values. */
+/**
+ * Library entry point for a layer stack: solves a validated spec at its nominal (or given)
+ * variable values. A `wire:` cross-section is solved by `solveWire` (engine/wire/solve.ts).
+ */
 export function solve(spec: Spec, values: Readonly<Record<string, number>> = nominalVariables(spec)): SolveResult {
+  if (spec.wire !== undefined) throw new InputError('bad-value', 'wire: this spec describes a wire cross-section; solve it with solveWire (the CLI does so)', 'wire');
   return solveStructure(buildStructure(spec, values), settingsOf(spec));
 }
 

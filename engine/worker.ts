@@ -3,9 +3,10 @@
  * the thread boundary as {name, code, message}.
  */
 import { runStart, type StartOutcome, type StartTask } from './design/start.js';
+import { runBatch, type BatchOutcome, type BatchTask } from './tolerance/montecarlo.js';
 
-export type WorkerTask = StartTask;
-export type WorkerResult = StartOutcome;
+export type WorkerTask = StartTask | BatchTask;
+export type WorkerResult = StartOutcome | BatchOutcome;
 
 export type WorkerResponse =
   | { readonly type: 'ok'; readonly value: WorkerResult }
@@ -14,6 +15,7 @@ export type WorkerResponse =
 export function handle(task: WorkerTask): WorkerResult {
   switch (task.type) {
     case 'design-start': return runStart(task);
+    case 'tolerance-batch': return runBatch(task);
   }
 }
 

@@ -4,6 +4,10 @@ import { EXIT, type Outcome } from './exit.js';
 import { runSolve } from './solve.js';
 import { runMaterials } from './materials.js';
 import { runDesign, TARGET_HELP } from './design.js';
+import { runReport, runSolvePlot } from './report.js';
+import { runTolerance } from './tolerance.js';
+import { DEFAULT_TOLERANCE } from '../tolerance/analyse.js';
+import { ROBUST_SAMPLES } from './design.js';
 import { defaultWorkers } from '../pool.js';
 import { DEFAULT_DESIGN_OPTIONS } from '../design/search.js';
 
@@ -17,8 +21,13 @@ export async function cli(argv: string[]): Promise<Outcome> {
     .command('solve <spec>', 'states, transitions and density of states of a fixed structure', (y) =>
       y.positional('spec', { type: 'string', demandOption: true, describe: 'spec file (YAML or JSON)' })
         .option('json', { type: 'boolean', default: false, describe: 'machine-readable output on stdout' })
-        .option('wavefunctions', { type: 'boolean', default: false, describe: 'include sampled wavefunctions in --json' }),
-    (a) => { outcome = runSolve({ spec: a.spec!, json: a.json, wavefunctions: a.wavefunctions }); })
+        .option('wavefunctions', { type: 'boolean', default: false, describe: 'include sampled wavefunctions in --json' })
+        .option('maps', { type: 'boolean', default: false, describe: 'wire specs: include the cross-section grid, |ψ|² maps and sampled 1-D DOS in --json' })
+        .option('plot', { type: 'string', describe: 'also write the band diagram with states to this .svg file' }),
+    async (a) => {
+      const args = { spec: a.spec!, json: a.json, wavefunctions: a.wavefunctions, maps: a.maps };
+      outcome = a.plot === undefined ? runSolve(args) : await runSolvePlot(args, a.plot);
+    })
     .command('design <spec>', 'inverse design: ranked, growable designs for the spec\'s targets', (y) =>
       y.positional('spec', { type: 'string', demandOption: true, describe: 'spec file with vary: and targets:' })
         .option('starts', { type: 'number', default: DEFAULT_DESIGN_OPTIONS.starts, describe: 'Nelder–Mead starts (Latin hypercube)' })
@@ -29,15 +38,38 @@ export async function cli(argv: string[]): Promise<Outcome> {
         .option('evaluations', { type: 'number', default: DEFAULT_DESIGN_OPTIONS.maxEvaluations, describe: 'Nelder–Mead evaluation budget per start' })
         .option('out', { type: 'string', describe: 'folder for design-N.yaml specs and ranking.csv' })
         .option('json', { type: 'boolean', default: false, describe: 'machine-readable output on stdout' })
+        .option('robust', { type: 'boolean', default: false, describe: `rank the top designs by Monte Carlo growth yield (${ROBUST_SAMPLES} samples, default growth errors of "wellsmith tolerance"), then by loss` })
         .epilogue(TARGET_HELP),
-    async (a) => { outcome = await runDesign({ spec: a.spec!, starts: a.starts, seed: a.seed, top: a.top, workers: a.workers, step: a.step, evaluations: a.evaluations, out: a.out, json: a.json }); })
+    async (a) => { outcome = await runDesign({ spec: a.spec!, starts: a.starts, seed: a.seed, top: a.top, workers: a.workers, step: a.step, evaluations: a.evaluations, out: a.out, json: a.json, robust: a.robust }); })
+    .command('tolerance <spec>', 'growth-error sensitivities, Monte Carlo yield and monolayer-island lines of one design', (y) =>
+      y.positional('spec', { type: 'string', demandOption: true, describe: 'spec with nominal values (e.g. a design-N.yaml written by design --out)' })
+        .option('samples', { type: 'number', default: DEFAULT_TOLERANCE.samples, describe: 'Monte Carlo samples (0 skips the yield)' })
+        .option('seed', { type: 'number', default: DEFAULT_TOLERANCE.seed, describe: 'seed of the samples' })
+        .option('workers', { type: 'number', default: defaultWorkers(), describe: 'worker threads' })
+        .option('dx', { type: 'number', default: DEFAULT_TOLERANCE.sensitivity.dx, describe: 'sensitivity: alloy-fraction step Δx' })
+        .option('rate', { type: 'number', default: DEFAULT_TOLERANCE.sensitivity.ratePercent, describe: 'sensitivity: growth-rate step (%)' })
+        .option('dT', { type: 'number', default: DEFAULT_TOLERANCE.sensitivity.dT, describe: 'sensitivity: temperature step (K)' })
+        .option('ml', { type: 'string', default: '-1:0.15,0:0.7,1:0.15', describe: 'Monte Carlo: per-layer monolayer-error probabilities, e.g. --ml=-1:0.15,0:0.7,1:0.15' })
+        .option('ml-sigma', { type: 'number', describe: 'Monte Carlo: per-layer monolayer σ (ML, rounded to whole ML); replaces --ml' })
+        .option('x-sigma', { type: 'number', default: DEFAULT_TOLERANCE.growth.compositionSigma, describe: 'Monte Carlo: alloy-fraction σ per layer' })
+        .option('rate-sigma', { type: 'number', default: DEFAULT_TOLERANCE.growth.rateSigmaPercent, describe: 'Monte Carlo: growth-rate σ (%)' })
+        .option('json', { type: 'boolean', default: false, describe: 'machine-readable output on stdout' }),
+    async (a) => {
+      outcome = await runTolerance({ spec: a.spec!, samples: a.samples, seed: a.seed, workers: a.workers, dx: a.dx, rate: a.rate, dT: a.dT,
+        mlTable: a.ml, mlSigma: a['ml-sigma'], xSigma: a['x-sigma'], rateSigma: a['rate-sigma'], json: a.json });
+    })
+    .command('report <input>', 'self-contained HTML report of a spec, or of solve --json / design --json output', (y) =>
+      y.positional('input', { type: 'string', demandOption: true, describe: 'spec file (solved, targets scored) or a JSON file from solve/design --json' })
+        .option('out', { type: 'string', describe: 'HTML file to write (default: INPUT with .html)' })
+        .option('growth-sheet', { type: 'string', describe: 'also write the growth sheet (per-layer shutter times) as CSV; needs growth.rates in the spec' }),
+    async (a) => { outcome = await runReport({ input: a.input!, out: a.out, growthSheet: a.growthSheet }); })
     .command('materials [formula]', 'material parameters at a temperature and on a substrate', (y) =>
       y.positional('formula', { type: 'string', describe: 'e.g. In0.2Ga0.8As (omit to list the binaries)' })
         .option('on', { type: 'string', describe: 'substrate the layer is strained on, e.g. GaAs' })
         .option('temperature', { type: 'string', default: '300 K', describe: 'temperature, e.g. "77 K"' })
         .option('json', { type: 'boolean', default: false, describe: 'machine-readable output on stdout' }),
     (a) => { outcome = runMaterials({ formula: a.formula, on: a.on, temperature: a.temperature, json: a.json }); })
-    .demandCommand(1, 'give a command: solve, design, materials (see --help)')
+    .demandCommand(1, 'give a command: solve, design, materials, campaign, merge, report (see --help)')
     .strict()
     .help()
     .version()

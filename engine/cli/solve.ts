@@ -4,8 +4,14 @@ import { solve, BANDS, type SolveResult } from '../solve.js';
 import type { Structure } from '../structure.js';
 import { EXIT, failure, success, type Outcome } from './exit.js';
 import { fixed, sig, table, toJson } from './format.js';
+import { describeWire, wireJson } from '../wire/describe.js';
+import { solveWire } from '../wire/solve.js';
 
-export interface SolveArgs { readonly spec: string; readonly json: boolean; readonly wavefunctions: boolean }
+export interface SolveArgs {
+  readonly spec: string; readonly json: boolean; readonly wavefunctions: boolean;
+  /** Wire specs: include the cross-section grid, the |ψ|² maps and the sampled 1-D DOS in --json. */
+  readonly maps?: boolean;
+}
 
 /** The machine-readable form: everything but the sampled wavefunctions unless asked. */
 export function solveJson(r: SolveResult, withWavefunctions: boolean): unknown {
@@ -51,6 +57,10 @@ export function runSolve(args: SolveArgs): Outcome {
   try {
     const loaded = loadSpecFile(args.spec);
     locate = loaded.locate;
+    if (loaded.spec.wire !== undefined) {
+      const wire = solveWire(loaded.spec);
+      return success(`${args.json ? toJson(wireJson(wire, args.maps ?? false)) : describeWire(wire)}\n`, wire.status === 'ok' ? EXIT.ok : EXIT.physics);
+    }
     const result = solve(loaded.spec);
     return success(`${args.json ? toJson(solveJson(result, args.wavefunctions)) : describeSolve(result)}\n`, result.status === 'ok' ? EXIT.ok : EXIT.physics);
   } catch (e) {

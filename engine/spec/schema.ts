@@ -5,6 +5,7 @@
  * so an error can still point at the field the user wrote.
  */
 import { z } from 'zod';
+import { wireSchema } from '../wire/schema.js';
 
 const quantity = z.union([z.number(), z.string()]);
 const name = z.string().regex(/^[A-Za-z_][A-Za-z0-9_]*$/, 'must be a name of letters, digits and _ that starts with a letter');
@@ -62,6 +63,13 @@ export const solverSchema = z
   })
   .strict();
 
+export const growthSchema = z
+  .object({
+    rates: z.record(z.string().min(1), quantity).describe('Growth rates keyed by binary (GaAs, AlAs, InAs), alloy formula or layer label: "1.0 µm/h", "0.2 ML/s", "2.5 Å/s"'),
+  })
+  .strict()
+  .describe('Growth rates for the shutter times of the growth sheet (wellsmith report)');
+
 export const specSchema = z
   .object({
     title: z.string().optional(),
@@ -71,11 +79,21 @@ export const specSchema = z
     offsets: offsetsSchema.optional(),
     materials: z.record(name, customMaterialSchema).optional(),
     vary: z.record(name, variableSchema).optional(),
-    stack: z.array(layerSchema).min(1),
+    stack: z.array(layerSchema).min(1).default([]).describe('Layers from the substrate upwards; omit it when the spec describes a wire'),
+    wire: wireSchema.optional(),
     solver: solverSchema.optional(),
+    growth: growthSchema.optional(),
     targets: z.array(z.record(z.string(), z.unknown())).optional(),
   })
-  .strict();
+  .strict()
+  // A spec is either a layer stack or a wire cross-section; the empty default keeps Spec.stack a list for well code.
+  .superRefine((spec, ctx) => {
+    if (spec.wire === undefined && spec.stack.length === 0) {
+      ctx.addIssue({ code: 'custom', path: ['stack'], input: undefined, message: 'is required: give the layers, or a "wire:" section for a quantum wire' });
+    } else if (spec.wire !== undefined && spec.stack.length > 0) {
+      ctx.addIssue({ code: 'custom', path: ['wire'], input: undefined, message: 'a spec describes either a layer stack or a wire, not both; remove "stack:" or "wire:"' });
+    }
+  });
 
 export type Spec = z.infer<typeof specSchema>;
 export type LayerSpec = z.infer<typeof layerSchema>;

@@ -42,8 +42,8 @@ function drawMonolayers(r: Random, m: MonolayerModel): number {
 
 /**
  * The growth errors of sample `index`: per layer (in stack order) one ML draw then one
- * composition draw, then the growth-rate draw. A σ of 0 consumes no normal deviate's effect
- * (the draw is multiplied by 0), so zero-σ samples are the nominal structure exactly.
+ * composition draw, then the growth-rate draw. Draws are consumed whatever the σ's, and a zero σ
+ * multiplies its deviate by 0, so a zero-σ sample is the nominal structure exactly.
  */
 export function samplePerturbation(seed: number, index: number, layers: number, model: GrowthModel): Perturbation {
   const r = new Random(deriveSeed(seed, index));

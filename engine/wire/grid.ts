@@ -1,0 +1,62 @@
+/**
+ * One grid for every band of a wire. Each band's converged solve ends on its own finest grid
+ * (h/2 or h/4); because the outer box is a whole number of coarse cells, these grids nest, and
+ * node i of a grid with c cells per side is node s·(i + 1) − 1 of the grid with s·c cells.
+ * Envelopes are restricted to the coarsest of the finest grids (and renormalised there) so
+ * overlaps and maps compare like with like. Lengths nm, envelopes 1/nm.
+ */
+import type { CrossSectionBox } from '../solver2d.js';
+
+/** The grid of the |ψ|² maps: node (i, j) at (x0 + i·dx, y0 + j·dy), index i + nx·j. */
+export interface MapGrid {
+  readonly nx: number;
+  readonly ny: number;
+  readonly dx_nm: number;
+  readonly dy_nm: number;
+  readonly x0_nm: number;
+  readonly y0_nm: number;
+  /** Material index at each node (0 = barrier; order as in structure.materials). */
+  readonly material: readonly number[];
+}
+
+/** Envelopes of each band restricted to the coarsest nested grid, renormalised to Σψ² dx dy = 1. */
+export function commonGrid(
+  box: CrossSectionBox,
+  bands: readonly { readonly psi: readonly Float64Array[]; readonly nx: number; readonly ny: number }[],
+  region: (x_nm: number, y_nm: number) => number,
+): { readonly grid: MapGrid; readonly psi: readonly Float64Array[][] } {
+  const cx = Math.min(...bands.map((b) => b.nx + 1));
+  const cy = Math.min(...bands.map((b) => b.ny + 1));
+  const nx = cx - 1;
+  const ny = cy - 1;
+  const dx = box.width_nm / cx;
+  const dy = box.height_nm / cy;
+  const material: number[] = [];
+  for (let j = 0; j < ny; j++) for (let i = 0; i < nx; i++) material.push(region(box.x0_nm + (i + 1) * dx, box.y0_nm + (j + 1) * dy));
+  const psi = bands.map((b) => {
+    const sx = Math.round((b.nx + 1) / cx);
+    const sy = Math.round((b.ny + 1) / cy);
+    return b.psi.map((v) => {
+      const out = new Float64Array(nx * ny);
+      let norm = 0;
+      for (let j = 0; j < ny; j++) {
+        for (let i = 0; i < nx; i++) {
+          const x = v[sx * (i + 1) - 1 + (b.nx) * (sy * (j + 1) - 1)]!;
+          out[i + nx * j] = x;
+          norm += x * x;
+        }
+      }
+      const scale = 1 / Math.sqrt(norm * dx * dy);
+      return out.map((x) => x * scale);
+    });
+  });
+  return { grid: { nx, ny, dx_nm: dx, dy_nm: dy, x0_nm: box.x0_nm + dx, y0_nm: box.y0_nm + dy, material }, psi };
+}
+
+/** Interband overlap |∫ψ_a ψ_b dx dy|² of two envelopes on one grid (rectangle rule, exact for the discrete eigenvectors' inner product). */
+export function overlap2d(a: Float64Array, b: Float64Array, grid: Pick<MapGrid, 'dx_nm' | 'dy_nm'>): number {
+  let s = 0;
+  for (let k = 0; k < a.length; k++) s += a[k]! * b[k]!;
+  const o = s * grid.dx_nm * grid.dy_nm;
+  return o * o;
+}
