@@ -8,6 +8,8 @@ import { runReport, runSolvePlot } from './report.js';
 import { runTolerance } from './tolerance.js';
 import { DEFAULT_TOLERANCE } from '../tolerance/analyse.js';
 import { ROBUST_SAMPLES } from './design.js';
+import { runCampaignCommand } from './campaign.js';
+import { runMerge } from './merge.js';
 import { defaultWorkers } from '../pool.js';
 import { DEFAULT_DESIGN_OPTIONS } from '../design/search.js';
 
@@ -69,6 +71,18 @@ export async function cli(argv: string[]): Promise<Outcome> {
         .option('temperature', { type: 'string', default: '300 K', describe: 'temperature, e.g. "77 K"' })
         .option('json', { type: 'boolean', default: false, describe: 'machine-readable output on stdout' }),
     (a) => { outcome = runMaterials({ formula: a.formula, on: a.on, temperature: a.temperature, json: a.json }); })
+    .command('campaign <file>', 'run or resume a campaign of design jobs into a run store (or write Slurm scripts for it)', (y) =>
+      y.positional('file', { type: 'string', demandOption: true, describe: 'campaign file (YAML or JSON): spec, sweep, design options' })
+        .option('out', { type: 'string', describe: 'run folder holding campaign.sqlite (default: FILE without extension + ".run"); rerun to resume' })
+        .option('workers', { type: 'number', default: defaultWorkers(), describe: 'worker threads' })
+        .option('shard', { type: 'string', describe: 'run only shard i of N, e.g. 2/3 (jobs with index mod N = i - 1)' })
+        .option('export', { type: 'string', choices: ['csv'], describe: 'also write all ranked designs to OUT/designs.csv' })
+        .option('slurm', { type: 'number', describe: 'write a Slurm job array of N shards, a dependent merge job and submit.sh to OUT/slurm; runs nothing' }),
+    async (a) => { outcome = await runCampaignCommand({ file: a.file!, out: a.out, workers: a.workers, shard: a.shard, export: a.export, slurm: a.slurm }); })
+    .command('merge <out> <dirs..>', 'join shard run stores into the run store of OUT (idempotent)', (y) =>
+      y.positional('out', { type: 'string', demandOption: true, describe: 'run folder to merge into (created if missing)' })
+        .positional('dirs', { type: 'string', array: true, demandOption: true, describe: 'shard run folders' }),
+    (a) => { outcome = runMerge({ out: a.out!, dirs: a.dirs! }); })
     .demandCommand(1, 'give a command: solve, design, materials, campaign, merge, report (see --help)')
     .strict()
     .help()

@@ -1,0 +1,203 @@
+/**
+ * A campaign file: one base spec plus sweep axes whose Cartesian product is a list of named,
+ * deterministic jobs. Each axis sets one field path of the spec (e.g. `targets[0].wavelength`,
+ * `stack[1].material`) or a design option (`design.seed`) to a list of values or a range
+ * `{from, to, step}` with a unit. Job order and names depend only on the file, so a job's index
+ * (used for sharding) and its spec hash are the same on every machine.
+ */
+import { createHash } from 'node:crypto';
+import { readFileSync } from 'node:fs';
+import { dirname, resolve } from 'node:path';
+import { z } from 'zod';
+import { InputError } from '../errors.js';
+import { DEFAULT_DESIGN_OPTIONS, type DesignOptions } from '../design/search.js';
+import { describeIssue, fieldName, fieldPath, parseYamlText, validateSpec } from '../spec/load.js';
+import type { Spec } from '../spec/schema.js';
+import { splitQuantity } from '../spec/units.js';
+
+const scalar = z.union([z.string(), z.number(), z.boolean()]);
+const range = z.object({ from: z.union([z.string(), z.number()]), to: z.union([z.string(), z.number()]), step: z.union([z.string(), z.number()]) }).strict();
+
+const designOptionsSchema = z.object({
+  starts: z.number().int().min(1).optional(),
+  top: z.number().int().min(1).optional(),
+  seed: z.number().int().min(0).optional(),
+  evaluations: z.number().int().min(10).optional(),
+  step: z.number().gt(0).max(0.1).optional(),
+}).strict();
+
+/**
+ * What a job does with its spec. Only `design` runs today; a Monte-Carlo yield job of the best
+ * design (engine/tolerance/) is meant to join as a second kind.
+ */
+export const JOB_KINDS = ['design'] as const;
+export type JobKind = (typeof JOB_KINDS)[number];
+
+export const campaignSchema = z.object({
+  title: z.string().optional(),
+  kind: z.enum(JOB_KINDS).default('design'),
+  /** The base spec: inline, or a path relative to the campaign file. */
+  spec: z.union([z.string(), z.record(z.string(), z.unknown())]),
+  design: designOptionsSchema.default({}),
+  /** Axis path -> values (scalars or whole replacement objects) or a range with a unit. */
+  sweep: z.record(z.string(), z.union([z.array(z.union([scalar, z.record(z.string(), z.unknown()), z.array(z.unknown())])).min(1), range])).default({}),
+}).strict();
+
+export type CampaignFile = z.infer<typeof campaignSchema>;
+
+export type JobOptions = Pick<DesignOptions, 'starts' | 'top' | 'seed' | 'maxEvaluations' | 'compositionStep'>;
+
+export interface Job {
+  /** Position in the expansion (axis order of the file, last axis fastest), 0-based. */
+  readonly index: number;
+  /** e.g. "wavelength=1310nm,material=InGaAs"; "base" when there are no axes. */
+  readonly name: string;
+  readonly kind: JobKind;
+  readonly spec: Spec;
+  readonly options: JobOptions;
+  /** sha256 (first 16 hex digits) of the canonical JSON of {kind, spec, options}. */
+  readonly hash: string;
+}
+
+export interface Campaign {
+  readonly title: string;
+  readonly origin: string;
+  readonly jobs: readonly Job[];
+  /** sha256 (16 hex) over the job hashes in order: shard stores of one campaign share it. */
+  readonly hash: string;
+}
+
+/** JSON with object keys sorted, so equal values hash equally whatever their key order. */
+export function canonicalJson(value: unknown): string {
+  if (Array.isArray(value)) return `[${value.map(canonicalJson).join(',')}]`;
+  if (value !== null && typeof value === 'object') {
+    return `{${Object.keys(value).sort().filter((k) => (value as Record<string, unknown>)[k] !== undefined)
+      .map((k) => `${JSON.stringify(k)}:${canonicalJson((value as Record<string, unknown>)[k])}`).join(',')}}`;
+  }
+  return JSON.stringify(value);
+}
+
+export const hash16 = (text: string): string => createHash('sha256').update(text).digest('hex').slice(0, 16);
+
+interface AxisValue { readonly label: string; readonly value: unknown }
+interface Axis { readonly path: string; readonly name: string; readonly values: readonly AxisValue[] }
+
+/** Range values, rounded to 12 significant digits so 1300 + 3·10 is written "1330", not "1330.0000000000002". */
+function expandRange(path: string, r: z.infer<typeof range>): unknown[] {
+  const [from, to, step] = [r.from, r.to, r.step].map(splitQuantity);
+  if (!from || !to || !step) throw new InputError('bad-value', `sweep.${path}: from, to and step must be numbers or quantities such as "1300 nm", got ${JSON.stringify(r)}`);
+  if (from.unit !== to.unit || from.unit !== step.unit) throw new InputError('bad-value', `sweep.${path}: from, to and step must share one unit, got "${from.unit}", "${to.unit}", "${step.unit}"; write them in the same unit`);
+  const n = Math.floor((to.value - from.value) / step.value + 1e-9) + 1;
+  if (!(step.value > 0) || !(n >= 1) || n > 100_000) throw new InputError('bad-value', `sweep.${path}: needs step > 0 and from ≤ to (at most 100000 values), got from ${r.from}, to ${r.to}, step ${r.step}`);
+  return Array.from({ length: n }, (_, k) => {
+    const v = Number((from.value + k * step.value).toPrecision(12));
+    return from.unit === '' && typeof r.from === 'number' ? v : `${v} ${from.unit}`.trim();
+  });
+}
+
+const labelOf = (value: unknown, k: number): string =>
+  typeof value === 'object' && value !== null ? `#${k + 1}` : String(value).replace(/\s+/g, '');
+
+function axisName(path: string): string {
+  const segments = fieldPath(path).filter((p): p is string => typeof p === 'string');
+  return segments[segments.length - 1] ?? path;
+}
+
+/** Returns a copy of `root` with the value at `path` replaced; the path must already exist. */
+function setPath(root: unknown, path: readonly (string | number)[], value: unknown, where: string): unknown {
+  if (path.length === 0) return value;
+  const [head, ...rest] = path as [string | number, ...(string | number)[]];
+  if (Array.isArray(root) && typeof head === 'number' && head < root.length) {
+    return root.map((x, i) => (i === head ? setPath(x, rest, value, where) : x));
+  }
+  if (root !== null && typeof root === 'object' && !Array.isArray(root) && typeof head === 'string' && (head in root || rest.length === 0)) {
+    return { ...root, [head]: setPath((root as Record<string, unknown>)[head], rest, value, where) };
+  }
+  throw new InputError('bad-value', `sweep.${where}: the base spec has no "${where}" to replace; check the path (e.g. "targets[0].wavelength", "stack[1].material")`, `sweep.${where}`);
+}
+
+const DESIGN_KEYS: Readonly<Record<string, keyof JobOptions>> = { starts: 'starts', top: 'top', seed: 'seed', evaluations: 'maxEvaluations', step: 'compositionStep' };
+
+function jobOptions(file: CampaignFile): JobOptions {
+  return {
+    starts: file.design.starts ?? DEFAULT_DESIGN_OPTIONS.starts,
+    top: file.design.top ?? DEFAULT_DESIGN_OPTIONS.top,
+    seed: file.design.seed ?? DEFAULT_DESIGN_OPTIONS.seed,
+    maxEvaluations: file.design.evaluations ?? DEFAULT_DESIGN_OPTIONS.maxEvaluations,
+    compositionStep: file.design.step ?? DEFAULT_DESIGN_OPTIONS.compositionStep,
+  };
+}
+
+/** Expands a validated campaign into its jobs (Cartesian product of the axes, last axis fastest). */
+export function expandCampaign(file: CampaignFile, baseSpec: unknown, origin: string, locate: (field: string) => number | undefined = () => undefined): Campaign {
+  const axes: Axis[] = Object.entries(file.sweep).map(([path, v]) => {
+    const values = Array.isArray(v) ? v : expandRange(path, v);
+    return { path, name: axisName(path), values: values.map((value, k) => ({ value, label: labelOf(value, k) })) };
+  });
+  let combos: AxisValue[][] = [[]];
+  for (const axis of axes) combos = combos.flatMap((c) => axis.values.map((v) => [...c, v]));
+  const base = jobOptions(file);
+  const seen = new Map<string, number>();
+  const jobs = combos.map((combo, index): Job => {
+    let spec: unknown = baseSpec;
+    let options = base;
+    combo.forEach((v, a) => {
+      const path = axes[a]!.path;
+      const option = path.startsWith('design.') ? DESIGN_KEYS[path.slice('design.'.length)] : undefined;
+      if (path.startsWith('design.')) {
+        if (!option || typeof v.value !== 'number') throw new InputError('bad-value', `sweep.${path}: design options that can be swept are ${Object.keys(DESIGN_KEYS).join(', ')}, each with numbers, got ${JSON.stringify(v.value)}`, `sweep.${path}`);
+        options = { ...options, [option]: v.value };
+      } else {
+        spec = setPath(spec, fieldPath(path), v.value, path);
+      }
+    });
+    const name = combo.length === 0 ? 'base' : combo.map((v, a) => `${axes[a]!.name}=${v.label}`).join(',');
+    if (seen.has(name)) throw new InputError('bad-value', `sweep: jobs ${seen.get(name)! + 1} and ${index + 1} would share the name "${name}"; give each axis distinct values`);
+    seen.set(name, index);
+    let valid: Spec;
+    try {
+      valid = validateSpec(spec);
+    } catch (e) {
+      if (e instanceof InputError) {
+        const field = typeof file.spec === 'string' ? undefined : `spec.${e.field ?? ''}`;
+        const line = field ? locate(field) : undefined;
+        throw new InputError(e.code, `${origin}: job "${name}": ${e.message}${line && !/\(line \d+\)/.test(e.message) ? ` (line ${line})` : ''}`);
+      }
+      throw e;
+    }
+    return { index, name, kind: file.kind, spec: valid, options, hash: hash16(canonicalJson({ kind: file.kind, spec: valid, options })) };
+  });
+  return { title: file.title ?? origin, origin, jobs, hash: hash16(jobs.map((j) => `${j.name}:${j.hash}`).join('\n')) };
+}
+
+function readText(path: string, what: string): string {
+  try {
+    return readFileSync(path, 'utf8');
+  } catch (e) {
+    const code = (e as NodeJS.ErrnoException).code;
+    throw new InputError('io', `cannot read ${what} "${path}"${code === 'ENOENT' ? ': no such file' : code ? ` (${code})` : ''}; check the path`);
+  }
+}
+
+/** Parses campaign text (YAML or JSON); `dir` resolves a base spec given as a path. */
+export function parseCampaignText(text: string, origin: string, dir: string): Campaign {
+  const { value, locate } = parseYamlText(text, origin);
+  const r = campaignSchema.safeParse(value ?? {}, { reportInput: true });
+  if (!r.success) {
+    const issue = r.error.issues[0]!;
+    const field = issue.code === 'unrecognized_keys' ? fieldName([...issue.path, issue.keys[0] as string]) : fieldName(issue.path);
+    const line = locate(field);
+    throw new InputError('schema', `${origin}: ${describeIssue(issue).replace('the spec schema (schema/spec.schema.json)', 'the campaign keys (title, kind, spec, design, sweep)')}${line ? ` (line ${line})` : ''}`, field);
+  }
+  if (typeof r.data.spec === 'string') {
+    const specPath = resolve(dir, r.data.spec);
+    const base = parseYamlText(readText(specPath, 'base spec'), specPath);
+    return expandCampaign(r.data, base.value, origin);
+  }
+  return expandCampaign(r.data, r.data.spec, origin, locate);
+}
+
+/** Reads a campaign file. */
+export function loadCampaignFile(path: string): Campaign {
+  return parseCampaignText(readText(path, 'campaign file'), path, dirname(resolve(path)));
+}

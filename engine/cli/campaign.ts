@@ -1,0 +1,114 @@
+/**
+ * `wellsmith campaign FILE`: runs (or resumes) a campaign's jobs into the run store of --out,
+ * optionally one shard of them, or writes Slurm scripts for the whole campaign. SIGINT/SIGTERM stop
+ * the run at the next checkpoint (the next finished start) and exit 128 + signal number.
+ */
+import { chmodSync } from 'node:fs';
+import { basename, dirname, extname, join, resolve } from 'node:path';
+import { loadCampaignFile, type Campaign } from '../campaign/campaign.js';
+import { designsCsv } from '../campaign/export.js';
+import { runCampaign, type RunSummary, type Shard } from '../campaign/run.js';
+import { slurmScripts } from '../campaign/slurm.js';
+import { InputError } from '../errors.js';
+import { RunStore } from '../store/store.js';
+import { EXIT, failure, success, type Outcome } from './exit.js';
+import { sig, table } from './format.js';
+import { writeFileAtomic } from './output.js';
+import { progressBar } from './progress.js';
+
+export interface CampaignArgs {
+  readonly file: string;
+  readonly out: string | undefined;
+  readonly workers: number;
+  readonly shard: string | undefined;
+  readonly export: string | undefined;
+  readonly slurm: number | undefined;
+}
+
+/** The run folder when --out is not given: beside the campaign file, named after it. */
+export const defaultRunFolder = (file: string): string => join(dirname(file), `${basename(file, extname(file))}.run`);
+
+/** "2/3" -> shard 2 of 3. */
+export function parseShard(text: string | undefined): Shard {
+  if (text === undefined) return { index: 1, count: 1 };
+  const m = /^\s*(\d+)\s*\/\s*(\d+)\s*$/.exec(text);
+  const shard = m ? { index: Number(m[1]), count: Number(m[2]) } : undefined;
+  if (!shard || shard.count < 1 || shard.index < 1 || shard.index > shard.count) {
+    throw new InputError('bad-value', `--shard: expected i/N with 1 ≤ i ≤ N (e.g. 2/3), got ${JSON.stringify(text)}`);
+  }
+  return shard;
+}
+
+/** How this process was started (node, its flags, the main script), so cluster nodes run the same wellsmith. */
+function selfCommand(): string[] {
+  const main = process.argv[1] ?? '';
+  if (!/[\\/]main\.[jt]s$/.test(main)) return ['wellsmith'];
+  return [process.execPath, ...process.execArgv, resolve(main)];
+}
+
+function writeSlurm(campaign: Campaign, file: string, out: string, shards: number, cpus: number): Outcome {
+  if (!Number.isInteger(shards) || shards < 1) throw new InputError('bad-value', `--slurm: the number of array tasks must be a whole number ≥ 1, got ${shards}`);
+  const dir = resolve(out);
+  const scripts = slurmScripts({
+    campaign: resolve(file), out: dir, shards, workdir: process.cwd(), command: selfCommand(), cpusPerTask: cpus,
+    jobName: `wellsmith-${basename(file, extname(file))}`.replace(/[^\w.-]/g, '_'),
+  });
+  for (const [name, text] of [['array.sbatch', scripts.array], ['merge.sbatch', scripts.merge], ['submit.sh', scripts.submit]] as const) {
+    writeFileAtomic(join(dir, 'slurm', name), text);
+    chmodSync(join(dir, 'slurm', name), 0o755);
+  }
+  return success(`${campaign.jobs.length} jobs in ${shards} shards; scripts in ${join(dir, 'slurm')}\nsubmit with: ${join(dir, 'slurm', 'submit.sh')}\n`);
+}
+
+function describe(store: RunStore, summary: RunSummary, shard: Shard): string {
+  const jobs = store.jobs();
+  const rows = jobs.map((j) => {
+    const best = store.designs(j.name)[0];
+    const values = best ? Object.entries(JSON.parse(best.values_json) as Record<string, number>).map(([k, v]) => `${k}=${sig(v, 5)}`).join(' ') : '';
+    return [String(j.idx + 1), j.name, j.state, j.status ?? '', best ? sig(best.loss, 3) : '', values];
+  });
+  const met = jobs.filter((j) => j.status === 'ok').length;
+  return [
+    table(['#', 'job', 'state', 'status', 'best loss', 'best design'], rows),
+    `${shard.count > 1 ? `shard ${shard.index}/${shard.count}: ` : ''}${summary.jobs} jobs, ${summary.alreadyDone} already finished, ${summary.ran} run now (${summary.startsRun} starts run, ${summary.startsReused} taken from the store${summary.requeued ? `, ${summary.requeued} stale job re-queued` : ''}); ${met} of the stored jobs meet every target`,
+    ...summary.failed.map((f) => `failed: ${f.job}: ${f.message}`),
+  ].join('\n');
+}
+
+export async function runCampaignCommand(args: CampaignArgs): Promise<Outcome> {
+  const bar = progressBar('campaign');
+  let signal: NodeJS.Signals | undefined;
+  const onSignal = (s: NodeJS.Signals): void => { signal ??= s; };
+  let store: RunStore | undefined;
+  try {
+    if (!Number.isInteger(args.workers) || args.workers < 1) throw new InputError('bad-value', `--workers: must be a whole number ≥ 1, got ${args.workers}`);
+    if (args.export !== undefined && args.export !== 'csv') throw new InputError('bad-value', `--export: the only format is csv, got ${JSON.stringify(args.export)}`);
+    const shard = parseShard(args.shard);
+    const campaign = loadCampaignFile(args.file);
+    const out = args.out ?? defaultRunFolder(args.file);
+    if (args.slurm !== undefined) return writeSlurm(campaign, args.file, out, args.slurm, args.workers);
+    store = RunStore.open(out);
+    process.on('SIGINT', onSignal);
+    process.on('SIGTERM', onSignal);
+    const summary = await runCampaign(campaign, store, {
+      workers: args.workers,
+      shard,
+      shouldStop: () => signal !== undefined,
+      onProgress: (p) => bar.update(p.jobsDone, p.jobsTotal, `${p.job} start ${p.startsDone}/${p.startsTotal} · best loss ${sig(p.bestLoss, 3)}${p.bestJob ? ` (${p.bestJob})` : ''}`),
+    });
+    bar.stop();
+    if (summary.status === 'stopped') {
+      const resume = `wellsmith campaign ${args.file} --out ${out}${args.shard ? ` --shard ${args.shard}` : ''}`;
+      return { code: 128 + (signal === 'SIGTERM' ? 15 : 2), stdout: '', stderr: `wellsmith: campaign stopped by ${signal ?? 'request'} after the last finished start; every finished start is stored in ${store.path}. Resume with: ${resume}\n` };
+    }
+    if (args.export === 'csv') writeFileAtomic(join(out, 'designs.csv'), designsCsv(store));
+    return success(`${describe(store, summary, shard)}\n`, summary.failed.length > 0 ? EXIT.physics : EXIT.ok);
+  } catch (e) {
+    bar.stop();
+    return failure(e);
+  } finally {
+    process.off('SIGINT', onSignal);
+    process.off('SIGTERM', onSignal);
+    store?.close();
+  }
+}

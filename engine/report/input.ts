@@ -1,0 +1,99 @@
+/**
+ * What a report is made from, detected from the file: a spec (YAML or JSON; solved at its nominal
+ * values, targets scored, growth sheet from its `growth` section), or the JSON written by
+ * `wellsmith solve --json` or `wellsmith design --json` (re-solved from the recorded structure and
+ * solver settings, which reproduces the recorded energies exactly and restores the wavefunctions
+ * that --json leaves out).
+ */
+import { readFileSync } from 'node:fs';
+import { InputError } from '../errors.js';
+import { parseSpecText, type LoadedSpec } from '../spec/load.js';
+import { solve, solveStructure, type SolveResult, type SolverSettings } from '../solve.js';
+import type { Structure } from '../structure.js';
+import { compileTargets, scoreTargets, type Scored } from '../../objectives/index.js';
+import type { Evaluation } from '../../objectives/types.js';
+import type { DesignVariable } from '../design/search.js';
+import { growthSheet, type GrowthSheet } from './growth.js';
+
+/** One ranked design as `design --json` records it. */
+export interface RankedDesign {
+  readonly rank: number;
+  readonly loss: number;
+  readonly satisfied: boolean;
+  readonly variables: readonly DesignVariable[];
+  readonly targets: readonly Evaluation[];
+  readonly critical_thickness_margin: number;
+}
+
+export type ReportInput =
+  | { readonly kind: 'solve'; readonly origin: string; readonly result: SolveResult; readonly scored: Scored | null; readonly growth: GrowthSheet | null }
+  | { readonly kind: 'design'; readonly origin: string; readonly status: string; readonly message: string; readonly seed: number; readonly starts: number; readonly designs: readonly RankedDesign[]; readonly best: SolveResult };
+
+/** JSON as written by format.ts toJson: non-finite numbers were stored as strings. */
+const reviveNumbers = (_k: string, v: unknown): unknown => (v === 'Infinity' ? Infinity : v === '-Infinity' ? -Infinity : v === 'NaN' ? NaN : v);
+
+const isRecord = (v: unknown): v is Record<string, unknown> => typeof v === 'object' && v !== null && !Array.isArray(v);
+
+function resolveRecorded(v: Record<string, unknown>, where: string): SolveResult {
+  if (!isRecord(v.structure) || !Array.isArray(v.structure.layers) || !isRecord(v.settings)) {
+    throw new InputError('schema', `${where}: a recorded result needs "structure" (with "layers") and "settings", as "wellsmith solve --json" writes them; regenerate the file`);
+  }
+  return solveStructure(v.structure as unknown as Structure, v.settings as unknown as SolverSettings);
+}
+
+/** A report input from a spec already loaded. */
+export function inputFromSpec(loaded: LoadedSpec): ReportInput {
+  const solved = solve(loaded.spec);
+  if ('maps' in solved) {
+    throw new InputError('schema', `${loaded.origin}: the report does not draw wire cross-sections yet; use "wellsmith solve --json" for a wire's states`, 'wire');
+  }
+  const result: SolveResult = solved;
+  const targets = compileTargets(loaded.spec.targets);
+  return {
+    kind: 'solve',
+    origin: loaded.origin,
+    result,
+    scored: targets.length > 0 ? scoreTargets(targets, result) : null,
+    growth: loaded.spec.growth ? growthSheet(result.structure, loaded.spec.growth.rates) : null,
+  };
+}
+
+/** A report input from file text; `origin` names the file in messages. */
+export function inputFromText(text: string, origin: string): ReportInput {
+  const trimmed = text.trimStart();
+  if (trimmed.startsWith('{')) {
+    let value: unknown;
+    try {
+      value = JSON.parse(text, reviveNumbers);
+    } catch (e) {
+      throw new InputError('schema', `${origin}: not valid JSON (${(e as Error).message}); give a spec, or the output of "wellsmith solve --json" or "design --json"`);
+    }
+    if (isRecord(value) && Array.isArray(value.designs)) {
+      const designs = value.designs.filter(isRecord);
+      const first = designs[0];
+      if (!first) throw new InputError('schema', `${origin}: the design output holds no design (status ${String(value.status)}); nothing to report`);
+      return {
+        kind: 'design', origin, status: String(value.status), message: String(value.message ?? ''),
+        seed: Number(value.seed), starts: Number(value.starts),
+        designs: designs as unknown as RankedDesign[],
+        best: resolveRecorded(first, `${origin}: designs[0]`),
+      };
+    }
+    if (isRecord(value) && 'structure' in value && 'bands' in value) {
+      return { kind: 'solve', origin, result: resolveRecorded(value, origin), scored: null, growth: null };
+    }
+  }
+  return inputFromSpec(parseSpecText(text, origin));
+}
+
+/** Reads a report input file (spec, solve --json or design --json). */
+export function loadReportInput(path: string): ReportInput {
+  let text: string;
+  try {
+    text = readFileSync(path, 'utf8');
+  } catch (e) {
+    const code = (e as NodeJS.ErrnoException).code;
+    throw new InputError('io', `cannot read report input "${path}"${code === 'ENOENT' ? ': no such file' : code ? ` (${code})` : ''}; check the path`);
+  }
+  return inputFromText(text, path);
+}

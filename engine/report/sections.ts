@@ -1,0 +1,136 @@
+/**
+ * Report sections, one builder per result kind. A new result kind (tolerance, wire, campaign)
+ * adds its variant to ReportInput (input.ts) and its builder to SECTION_BUILDERS; the page shell
+ * and the shared sections below stay as they are.
+ */
+import { BANDS, type SolveResult } from '../solve.js';
+import { fixed, sig } from '../cli/format.js';
+import type { Scored } from '../../objectives/index.js';
+import type { Evaluation } from '../../objectives/types.js';
+import { figureHtml, htmlTable, type Section } from './html.js';
+import { bandDiagramSpec, dosSpec, DIAGRAM_STATES } from './plots.js';
+import { renderSvg } from './render.js';
+import type { GrowthSheet } from './growth.js';
+import type { ReportInput } from './input.js';
+
+/** The band diagram with states as standalone SVG (also what `solve --plot` writes). */
+export const bandDiagramSvg = (r: SolveResult): Promise<string> => renderSvg(bandDiagramSpec(r));
+
+export function structureSection(r: SolveResult, id = 'structure'): Section {
+  const s = r.structure;
+  const rows = s.layers.map((l) => {
+    const b = l.bands[Math.floor(l.bands.length / 2)]!;
+    return [String(l.index + 1), l.label, l.formula, fixed(l.thickness_nm, 3), fixed(l.monolayers, 2), fixed(b.Ec, 4), fixed(b.Ehh, 4), fixed(b.Elh, 4), fixed(l.material.strain_par * 100, 3)];
+  });
+  const offsets = s.offsetRule.kind === 'absolute' ? s.offsetRule.source : `conduction-band share ${s.offsetRule.share} of ΔEg relative to ${s.offsetRule.reference}`;
+  return {
+    id, title: 'Layer stack',
+    lead: `T = ${s.temperature_K} K · substrate ${s.substrate ?? 'none (unstrained)'} · field ${s.field_kV_per_cm} kV/cm · offsets: ${offsets} · parameters: ${r.parameterSet}. Band edges at each layer's centre.`,
+    html: htmlTable(['#', 'layer', 'material', 'thickness (nm)', 'ML', 'Ec (eV)', 'Ehh (eV)', 'Elh (eV)', 'ε∥ (%)'], rows, [0, 3, 4, 5, 6, 7, 8]),
+  };
+}
+
+export async function bandSection(r: SolveResult, id = 'bands'): Promise<Section> {
+  return {
+    id, title: 'Band diagram and states',
+    lead: 'Band edges versus growth direction z, with |ψ|² of every bound state drawn at its energy (scaled to fit the well; upward for electrons, downward for holes).',
+    html: figureHtml(await bandDiagramSvg(r), `Ec, Ehh and Elh (eV, absolute scale of the parameter set) versus z (nm), with the lowest ${DIAGRAM_STATES} states of each band; the table lists all.`),
+  };
+}
+
+export function statesSection(r: SolveResult, id = 'states'): Section {
+  const rows = BANDS.flatMap((b) => r.bands[b].states.map((s) => [b.replace('_', ' '), s.label, fixed(s.energy_eV, 5), fixed(s.confinement_meV, 2), s.bound ? 'yes' : 'quasi', fixed(s.mass_inplane, 4)]));
+  return { id, title: 'Bound states', lead: r.status === 'ok' ? undefined : `status ${r.status}: ${r.message}`, html: htmlTable(['band', 'state', 'energy (eV)', 'confinement (meV)', 'bound', 'm∥ (m0)'], rows, [2, 3, 5]) };
+}
+
+/** Interband pairs with a smaller envelope overlap² are (nearly) forbidden and left out of the table. */
+export const MIN_OVERLAP2 = 0.05;
+/** Intersubband pairs with a smaller oscillator strength are left out of the table. */
+export const MIN_OSCILLATOR_STRENGTH = 0.01;
+
+export function transitionsSection(r: SolveResult, id = 'transitions'): Section {
+  const strong = (x: number | undefined, min: number): boolean => x === undefined || !Number.isFinite(x) || Math.abs(x) >= min;
+  const inter = r.transitions.filter((t) => t.kind === 'interband' && strong(t.overlap2, MIN_OVERLAP2));
+  const isb = r.transitions.filter((t) => t.kind === 'intersubband' && strong(t.oscillator_strength, MIN_OSCILLATOR_STRENGTH));
+  const omitted = r.transitions.length - inter.length - isb.length;
+  const parts: string[] = [];
+  if (inter.length > 0) {
+    parts.push('<h3>Interband</h3>', htmlTable(['transition', 'energy (eV)', 'wavelength (nm)', 'overlap²'],
+      inter.map((t) => [t.label, fixed(t.energy_eV, 5), fixed(t.wavelength_nm, 2), fixed(t.overlap2, 4)]), [1, 2, 3]));
+  }
+  if (isb.length > 0) {
+    parts.push('<h3>Intersubband</h3>', htmlTable(['transition', 'energy (meV)', 'wavelength (µm)', 'wavenumber (cm⁻¹)', 'dipole (nm)', 'oscillator strength'],
+      isb.map((t) => [t.label, fixed(t.energy_eV * 1000, 2), fixed(t.wavelength_nm / 1000, 3), fixed(t.wavenumber_per_cm, 1), fixed(t.dipole_nm, 4), fixed(t.oscillator_strength, 4)]), [1, 2, 3, 4, 5]));
+  }
+  return {
+    id, title: 'Transitions',
+    lead: `Allowed transitions: interband with envelope overlap² ≥ ${MIN_OVERLAP2}, intersubband with oscillator strength ≥ ${MIN_OSCILLATOR_STRENGTH}${omitted > 0 ? ` (${omitted} weaker pairs left out; "wellsmith solve --json" lists all)` : ''}.`,
+    html: parts.length > 0 ? parts.join('\n') : '<p>No transition: a band has no bound state.</p>' };
+}
+
+export async function dosSection(r: SolveResult, id = 'dos'): Promise<Section> {
+  const rows = BANDS.flatMap((b) => r.dos.bands[b].map((d) => [d.label, fixed(d.edge_eV, 5), fixed(d.mass_inplane, 4), sig(d.step_per_cm2_per_eV, 4)]));
+  return {
+    id, title: 'Density of states',
+    lead: 'Two-dimensional staircase Σ m∥/(πħ²) Θ(E − Eₙ) per band (spin included) and the bulk envelope g3(E)·L of the confining layers (width L) with the density-of-states mass (m∥² m_z)^(1/3).',
+    html: `${figureHtml(await renderSvg(dosSpec(r)), 'DOS (10¹³ cm⁻² eV⁻¹) versus energy into each band from its edge (meV).')}\n${htmlTable(['subband', 'edge (eV)', 'm∥ (m0)', 'step (cm⁻² eV⁻¹)'], rows, [1, 2, 3])}`,
+  };
+}
+
+const evaluationRow = (e: Evaluation): string[] =>
+  [e.label, e.achieved === null ? 'missing' : `${sig(e.achieved, 6)} ${e.unit}`.trim(), e.goal === null ? '–' : `${sig(e.goal, 6)} ${e.unit}`.trim(), e.residual.toFixed(3), e.satisfied ? 'yes' : 'no'];
+
+export function targetsSection(scored: Scored, id = 'targets'): Section {
+  return {
+    id, title: 'Targets',
+    lead: `Residuals in window half-widths: |r| ≤ 1 meets a target. Loss Σ w·r² = ${sig(scored.loss, 4)}; ${scored.satisfied ? 'every target met' : 'NOT every target met'}.`,
+    html: htmlTable(['target', 'achieved', 'goal', 'residual', 'met'], scored.evaluations.map(evaluationRow), [3]),
+  };
+}
+
+export function growthSection(g: GrowthSheet, id = 'growth'): Section {
+  const rows = g.rows.map((r) => [String(r.index + 1), r.label, r.formula, fixed(r.thickness_nm, 3), fixed(r.monolayers, 2), r.source,
+    r.rate_ml_per_s === null ? '–' : fixed(r.rate_ml_per_s, 4), r.rate_nm_per_s === null ? '–' : fixed(r.rate_nm_per_s, 4), r.time_s === null ? '–' : fixed(r.time_s, 1), r.note]);
+  return {
+    id, title: 'Growth sheet',
+    lead: `Shutter time = thickness in monolayers / growth rate (ML/s); alloy rates are the sum of their group-III binaries' rates. Total ${g.total_s === null ? '– (a layer lacks a rate)' : `${fixed(g.total_s, 1)} s`}.`,
+    html: htmlTable(['#', 'layer', 'material', 'thickness (nm)', 'ML', 'rate from', 'rate (ML/s)', 'rate (nm/s)', 'shutter (s)', 'note'], rows, [0, 3, 4, 6, 7, 8]),
+  };
+}
+
+async function solveSections(r: SolveResult): Promise<Section[]> {
+  return [structureSection(r), await bandSection(r), statesSection(r), transitionsSection(r), await dosSection(r)];
+}
+
+type Builder<K extends ReportInput['kind']> = (input: Extract<ReportInput, { kind: K }>) => Promise<readonly Section[]>;
+
+/** One section builder per result kind. */
+export const SECTION_BUILDERS: { readonly [K in ReportInput['kind']]: Builder<K> } = {
+  solve: async (input) => [
+    ...(input.scored ? [targetsSection(input.scored)] : []),
+    ...(await solveSections(input.result)),
+    ...(input.growth ? [growthSection(input.growth)] : []),
+  ],
+  design: async (input) => {
+    const first = input.designs[0]!;
+    const header = ['rank', ...first.variables.map((v) => (v.kind === 'fraction' ? v.name : `${v.name} (nm / ML)`)), ...first.targets.map((e) => e.label), 'loss', 'all met', 'h_c margin'];
+    const rows = input.designs.map((d) => [String(d.rank),
+      ...d.variables.map((v) => `${v.kind === 'fraction' ? v.value.toFixed(3) : `${fixed(v.nm, 3)} / ${fixed(v.ml, 1)}`}${v.atBound ? ` (${v.atBound} bound)` : ''}`),
+      ...d.targets.map((e) => (e.achieved === null ? 'missing' : `${sig(e.achieved, 6)} ${e.unit} (r = ${e.residual >= 0 ? '+' : ''}${e.residual.toFixed(2)})`)),
+      sig(d.loss, 3), d.satisfied ? 'yes' : 'no', `${fixed(d.critical_thickness_margin * 100, 0)} %`]);
+    const ranking: Section = {
+      id: 'ranking', title: 'Ranked designs',
+      lead: `${input.starts} starts, seed ${input.seed}; residuals r in window half-widths (|r| ≤ 1 meets a target). The sections below show design 1.`,
+      html: htmlTable(header, rows, [0]),
+    };
+    return [ranking, ...(await solveSections(input.best))];
+  },
+};
+
+/** The sections of any report input, dispatched on its kind. */
+export function sectionsOf(input: ReportInput): Promise<readonly Section[]> {
+  switch (input.kind) {
+    case 'solve': return SECTION_BUILDERS.solve(input);
+    case 'design': return SECTION_BUILDERS.design(input);
+  }
+}

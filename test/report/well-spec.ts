@@ -1,0 +1,14 @@
+/** Shared input of the report tests. */
+// A single GaAs well in Al0.3Ga0.7As: small and fast; the title carries markup that must stay text.
+export const WELL_SPEC = `
+title: "<script>alert(1)</script> & well"
+substrate: GaAs
+stack:
+  - { material: Al0.3Ga0.7As, thickness: 10 nm }
+  - { material: GaAs, thickness: 8 nm, label: well }
+  - { material: Al0.3Ga0.7As, thickness: 10 nm }
+growth:
+  rates: { GaAs: 1.0 µm/h, AlAs: 0.4211662 ML/s }
+targets:
+  - { transition: e1-hh1, wavelength: 820 nm, within: 20 nm }
+`;
