@@ -74,6 +74,9 @@ export const GRADE_SAMPLES = 65;
 
 export const PARAMETER_SET = 'Vurgaftman, Meyer & Ram-Mohan, J. Appl. Phys. 89, 5815 (2001)';
 
+/** Largest total stack thickness (nm): beyond it the wavefunction grid and the state count grow without physical purpose. */
+export const MAX_TOTAL_NM = 10_000;
+
 /** Kind and unit of a free variable, from the units of its bounds. */
 export interface VariableInfo {
   readonly name: string;
@@ -216,6 +219,7 @@ export function resolveComposition(spec: Spec, alloyOrCustom: Alloy | string, te
     if (typeof lattice === 'string' || (lattice && 'ml' in lattice)) throw new InputError('bad-value', `${f}.lattice: expected a length in nm or Å, got ${JSON.stringify(def.lattice)}`, `${f}.lattice`);
     return withField(f, () => customMaterial({
       name: alloyOrCustom,
+      temperature_K,
       Ec: num(def.Ec, parseEnergy, `${f}.Ec`, NaN),
       Ev: num(def.Ev, parseEnergy, `${f}.Ev`, NaN),
       me: def.me, mhh: def.mhh, mlh: def.mlh,
@@ -321,18 +325,24 @@ export function buildStructure(spec: Spec, values: Readonly<Record<string, numbe
     let length: Length;
     const t = layer.thickness;
     const tq = splitQuantity(t);
-    if (typeof t === 'string' && !tq) {
-      const { value, info } = lookupVariable(t.trim(), vars, ctx.values, `${field}.thickness`, 'length');
+    const isName = typeof t === 'string' && !tq && /^[A-Za-z_][A-Za-z0-9_]*$/.test(t.trim());
+    if (isName) {
+      const { value, info } = lookupVariable((t as string).trim(), vars, ctx.values, `${field}.thickness`, 'length');
       length = info.unit === 'ML' ? { ml: value } : { nm: value };
     } else {
       const parsed = parseLength(t);
-      if (typeof parsed === 'string') throw new InputError('bad-value', `${field}.thickness: ${parsed}`, `${field}.thickness`);
+      if (typeof parsed === 'string') throw new InputError('bad-value', `${field}.thickness: ${parsed}, or the name of a vary variable`, `${field}.thickness`);
       length = parsed;
     }
     const ml = centre.material.monolayer_nm;
-    const thickness_nm = (('ml' in length ? length.ml * ml : length.nm) + (perturbation.thickness_ML?.[i] ?? 0) * ml) * (perturbation.thicknessScale ?? 1);
-    if (!(thickness_nm > 0) || !Number.isFinite(thickness_nm)) throw new InputError('bad-value', `${field}.thickness: must be positive, got ${JSON.stringify(t)}${typeof t === 'string' && !tq ? ` = ${thickness_nm} nm` : ''}`, `${field}.thickness`);
+    const dML = perturbation.thickness_ML?.[i] ?? 0;
+    if (('ml' in length || dML !== 0) && !(ml > 0)) {
+      throw new InputError('bad-value', `${field}.thickness: a thickness in monolayers needs the material's lattice constant; give materials.${layer.material}.lattice or the thickness in nm`, `${field}.thickness`);
+    }
+    const thickness_nm = (('ml' in length ? length.ml * ml : length.nm) + (dML === 0 ? 0 : dML * ml)) * (perturbation.thicknessScale ?? 1);
+    if (!(thickness_nm > 0) || !Number.isFinite(thickness_nm)) throw new InputError('bad-value', `${field}.thickness: must be positive, got ${JSON.stringify(t)}${isName ? ` = ${thickness_nm} nm` : ''}`, `${field}.thickness`);
     total += thickness_nm;
+    if (total > MAX_TOTAL_NM) throw new InputError('bad-value', `${field}.thickness: the stack reaches ${total.toPrecision(4)} nm, above the ${MAX_TOTAL_NM / 1000} µm an envelope-function solve handles here; model only the active region (the outer layers continue outwards)`, `${field}.thickness`);
     const formula = composition.kind === 'custom' ? composition.name : composition.kind === 'alloy' ? formatFormula(composition.alloy) : `${formatFormula(composition.from)}→${formatFormula(composition.to)}`;
     return {
       index: i,
@@ -340,7 +350,7 @@ export function buildStructure(spec: Spec, values: Readonly<Record<string, numbe
       formula,
       composition,
       thickness_nm,
-      monolayers: thickness_nm / ml,
+      monolayers: ml > 0 ? thickness_nm / ml : NaN,
       monolayer_nm: ml,
       material: centre.material,
       bands,

@@ -17,11 +17,15 @@ export const fixed = (x: number | undefined, digits: number): string =>
 export const sig = (x: number, digits = 4): string =>
   !Number.isFinite(x) ? (x > 0 ? '∞' : '–') : x !== 0 && (Math.abs(x) < 1e-3 || Math.abs(x) >= 1e6) ? x.toExponential(digits - 1) : String(Number(x.toPrecision(digits)));
 
-/** JSON with typed arrays as plain arrays and non-finite numbers as strings ("Infinity"), so nothing is silently lost. */
+/**
+ * JSON with typed arrays as plain arrays; an infinite number as the string "Infinity" (a critical
+ * thickness of an unstrained layer is infinite, not missing) and NaN as null (a quantity that does
+ * not apply or is unknown, e.g. the lattice constant of a custom material declared without one).
+ */
 export function toJson(value: unknown): string {
   return JSON.stringify(value, (_k, v: unknown) => {
     if (v instanceof Float64Array) return Array.from(v);
-    if (typeof v === 'number' && !Number.isFinite(v)) return String(v);
+    if (typeof v === 'number' && !Number.isFinite(v)) return Number.isNaN(v) ? null : String(v);
     return v;
   }, 2);
 }

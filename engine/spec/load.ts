@@ -66,6 +66,14 @@ export function describeIssue(issue: z.core.$ZodIssue): string {
         : `${field}: expected ${issue.expected}, got ${JSON.stringify(issue.input)}`;
     case 'invalid_union':
       if (issue.input === undefined) return `${field}: is required`;
+      {
+        // A discriminated union (e.g. wire.shape.kind) names its allowed kinds.
+        const d = issue as { discriminator?: string; options?: readonly unknown[] };
+        if (d.discriminator !== undefined && Array.isArray(d.options)) {
+          const got = (issue.input as Record<string, unknown> | null)?.[d.discriminator];
+          return `${field}: unknown kind ${JSON.stringify(got)}; use one of ${d.options.map((o) => JSON.stringify(o)).join(', ')}`;
+        }
+      }
       return `${field}: got ${JSON.stringify(issue.input)}, which is not a number, a quantity with a unit, a variable name or {from, to}`;
     default:
       return `${field}: ${issue.message}${issue.input !== undefined ? `, got ${JSON.stringify(issue.input)}` : ''}`;
