@@ -190,7 +190,25 @@ function withField<T>(field: string, f: () => T): T {
   }
 }
 
-const parseFormulaAt = (text: string, field: string): Alloy => withField(field, () => parseFormula(text));
+/**
+ * Memo of pure look-ups that a design search repeats thousands of times with the same arguments
+ * (the fixed layers of a stack): formula parsing and material resolution. Values are frozen, so
+ * sharing them is safe; the table is cleared when it grows past MEMO_LIMIT entries.
+ */
+const MEMO_LIMIT = 4096;
+function memo<V>(table: Map<string, V>, key: string, make: () => V): V {
+  const hit = table.get(key);
+  if (hit !== undefined) return hit;
+  const value = make();
+  if (table.size >= MEMO_LIMIT) table.clear();
+  table.set(key, value);
+  return value;
+}
+const formulas = new Map<string, Alloy>();
+const materials = new Map<string, ResolvedMaterial>();
+const alloyKey = (a: Alloy): string => `${JSON.stringify(Object.entries(a.III).sort())}|${JSON.stringify(Object.entries(a.V).sort())}`;
+
+const parseFormulaAt = (text: string, field: string): Alloy => memo(formulas, text, () => withField(field, () => parseFormula(text)));
 const alloyAt = (name: string, fractions: Record<string, number>, field: string): Alloy => withField(field, () => alloyFromName(name, fractions));
 
 /** Mixes two alloys linearly: the composition at fraction t of a graded layer. */
@@ -228,7 +246,8 @@ export function resolveComposition(spec: Spec, alloyOrCustom: Alloy | string, te
       ...(lattice ? { a_nm: lattice.nm } : {}),
     }));
   }
-  return withField(field, () => resolveMaterial(alloyOrCustom, { temperature_K, substrate }));
+  const key = `${alloyKey(alloyOrCustom)}@${temperature_K}/${substrate ? alloyKey(substrate) : '-'}`;
+  return memo(materials, key, () => withField(field, () => resolveMaterial(alloyOrCustom, { temperature_K, substrate })));
 }
 
 /**
