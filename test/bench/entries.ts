@@ -13,6 +13,7 @@ import { solveCrossSection, type CrossSectionGrid } from '../../engine/solver2d.
 import { loadSpecFile, parseSpecText } from '../../engine/spec/load.js';
 import type { Spec } from '../../engine/spec/schema.js';
 import { buildStructure, nominalVariables, type Structure } from '../../engine/structure.js';
+import { DEFAULT_TOLERANCE, runSamples } from '../../engine/tolerance/analyse.js';
 import { HEAVY_POLICY, measure, pythonUnavailable, runPythonJson, type BenchEntry, type Reference } from './harness.js';
 
 export const ROOT = fileURLToPath(new URL('../../', import.meta.url));
@@ -183,6 +184,21 @@ export const ENTRIES: readonly BenchEntry[] = [
           const two = await measure(run(2), HEAVY_POLICY);
           const same = two.values.length === ours.values.length && two.values.every((v, k) => v === ours.values[k]);
           return { name: 'same design, workers 2', median_ms: two.median_ms, note: same ? 'workers 1 and 2 ranked identical losses' : `workers 1 and 2 differ: ${JSON.stringify(ours.values)} vs ${JSON.stringify(two.values)}` };
+        },
+      };
+    },
+  },
+  {
+    name: 'tolerance Monte Carlo, pump-976 nominal, 1000 samples, in-process',
+    target: { text: '< 1000 ms', met: (r) => r.median_ms < 1000 },
+    prepare: () => {
+      const { spec } = loadSpecFile(join(ROOT, 'runs/pump-976.yaml'));
+      const values = nominalVariables(spec);
+      return {
+        policy: HEAVY_POLICY,
+        run: async (): Promise<number[]> => {
+          const samples = await runSamples(spec, values, { ...DEFAULT_TOLERANCE, samples: 1000, workers: 1 });
+          return samples.flatMap((x) => (x.ok ? x.values : []));
         },
       };
     },
