@@ -24,14 +24,19 @@ export const constraintObjective: Objective<ConstraintTarget> = {
   schema,
   needsWavefunctions: () => false,
   statesNeeded: () => [],
-  check: (t, field) => {
+  check: (t, field, geometry) => {
+    if (geometry === 'wire') {
+      throw new InputError('bad-value', `${field}.constraint: ${t.constraint} reads the layers of a stack and a wire spec has none (its strain is not modelled as layers); drop this constraint or bound the wire's variables instead`, `${field}.constraint`);
+    }
     if (t.constraint === 'total_thickness') {
       const l = t.at_most === undefined ? 'is required for total_thickness' : parseLength(t.at_most);
       if (typeof l === 'string' || 'ml' in l || !(l.nm > 0)) throw new InputError('bad-value', `${field}.at_most: ${typeof l === 'string' ? l : 'give a positive length in nm'}`, `${field}.at_most`);
     }
   },
   evaluate: (t, r) => {
-    const layers = r.structure.layers;
+    const { layers, total_nm } = r.structure;
+    // check() refuses constraints on wires, so a result without layers here is a caller's bug.
+    if (layers === undefined || total_nm === undefined) throw new Error(`constraint ${t.constraint}: the solve result has no layers (a wire); compile the targets with geometry "wire" to refuse it`);
     if (t.constraint === 'critical_thickness') {
       let worst = -Infinity;
       for (const l of layers) worst = Math.max(worst, l.thickness_nm / l.material.criticalThickness_nm - 1);
@@ -44,7 +49,7 @@ export const constraintObjective: Objective<ConstraintTarget> = {
       return { label: 'direct gap', role: 'constraint', achieved: deficit * 1000, goal: 0, unit: 'meV', residual: deficit > 0 ? 1 + deficit / 0.01 : 0, weight: 1, satisfied: deficit <= 0 };
     }
     const limit = (parseLength(t.at_most!) as { nm: number }).nm;
-    const excess = r.structure.total_nm / limit - 1;
-    return { label: 'total thickness limit', role: 'constraint', achieved: r.structure.total_nm, goal: limit, unit: 'nm', residual: Math.max(0, excess) * BREACH_SCALE, weight: 1, satisfied: excess <= 0 };
+    const excess = total_nm / limit - 1;
+    return { label: 'total thickness limit', role: 'constraint', achieved: total_nm, goal: limit, unit: 'nm', residual: Math.max(0, excess) * BREACH_SCALE, weight: 1, satisfied: excess <= 0 };
   },
 };

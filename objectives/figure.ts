@@ -1,9 +1,8 @@
 /** Figures to maximise: the squared envelope overlap of a transition, or an intersubband oscillator strength. */
 import { z } from 'zod';
 import { InputError } from '../engine/errors.js';
-import { findTransition } from '../engine/solve.js';
 import type { Objective } from './types.js';
-import { transitionStates } from './common.js';
+import { transitionOf, transitionStates } from './common.js';
 
 const schema = z.object({
   maximize: z.enum(['overlap', 'oscillator_strength']).describe('Figure to maximise'),
@@ -18,12 +17,13 @@ export const figureObjective: Objective<FigureTarget> = {
   schema,
   needsWavefunctions: () => true,
   statesNeeded: (t) => t.transition.split('-'),
-  check: (t, field) => {
+  check: (t, field, geometry) => {
     const [, b] = transitionStates(t.transition, `${field}.transition`);
+    if (t.maximize === 'oscillator_strength' && geometry === 'wire') throw new InputError('bad-value', `${field}.maximize: oscillator strengths are computed for layer stacks only, got one on a wire spec; maximise the overlap or target the e1-e2 energy instead`, `${field}.maximize`);
     if (t.maximize === 'oscillator_strength' && !b.startsWith('e')) throw new InputError('bad-value', `${field}.transition: an oscillator strength is for an intersubband transition such as e1-e2, got "${t.transition}"`, `${field}.transition`);
   },
   evaluate: (t, r) => {
-    const tr = findTransition(r, t.transition);
+    const tr = transitionOf(r, t.transition);
     const value = tr ? (t.maximize === 'overlap' ? tr.overlap2 : (tr.oscillator_strength ?? 0)) : 0;
     return {
       label: `${t.transition} ${t.maximize === 'overlap' ? 'overlap²' : 'oscillator strength'}`,

@@ -4,9 +4,9 @@
  * validated by that kind's schema, and combined by weights into one loss Σ w·r².
  */
 import { InputError } from '../engine/errors.js';
-import { bandOfLabel, type SolveResult } from '../engine/solve.js';
+import { bandOfLabel } from '../engine/solve.js';
 import type { BandName } from '../engine/profile.js';
-import type { Evaluation, Objective } from './types.js';
+import type { Evaluation, Geometry, Objective, TargetSource } from './types.js';
 import { transitionObjective } from './transition.js';
 import { subbandEdgeObjective } from './subband-edge.js';
 import { spacingObjective } from './spacing.js';
@@ -37,8 +37,8 @@ export interface CompiledTarget {
   readonly field: string;
 }
 
-/** Validates a spec's targets; every error names the target's field. */
-export function compileTargets(raw: readonly Record<string, unknown>[] | undefined): CompiledTarget[] {
+/** Validates a spec's targets for a layer stack or a wire (default: stack); every error names the target's field. */
+export function compileTargets(raw: readonly Record<string, unknown>[] | undefined, geometry: Geometry = 'stack'): CompiledTarget[] {
   return (raw ?? []).map((entry, i) => {
     const field = `targets[${i}]`;
     const hit = OBJECTIVES.find((o) => o.key in entry);
@@ -53,7 +53,7 @@ export function compileTargets(raw: readonly Record<string, unknown>[] | undefin
       throw new InputError('schema', `${f}: ${what}`, f);
     }
     try {
-      objective.check(parsed.data, field);
+      objective.check(parsed.data, field, geometry);
     } catch (e) {
       if (e instanceof InputError && e.field === undefined) throw new InputError(e.code, `${field}: ${e.message}`, field);
       throw e;
@@ -70,7 +70,7 @@ export interface Scored {
   readonly satisfied: boolean;
 }
 
-export function scoreTargets(targets: readonly CompiledTarget[], result: SolveResult): Scored {
+export function scoreTargets(targets: readonly CompiledTarget[], result: TargetSource): Scored {
   const evaluations = targets.map((t) => t.objective.evaluate(t.target, result));
   let loss = 0;
   for (const e of evaluations) loss += e.weight * e.residual * e.residual;

@@ -4,7 +4,51 @@
  * which turns a solved structure into an achieved value and a normalised residual.
  */
 import type { z } from 'zod';
-import type { SolveResult } from '../engine/solve.js';
+import type { BandName } from '../engine/profile.js';
+
+/** A subband as targets read it (energies eV on the absolute scale, confinement meV). */
+export interface TargetState {
+  readonly label: string;
+  readonly energy_eV: number;
+  readonly confinement_meV: number;
+  readonly bound: boolean;
+}
+
+export interface TargetBand {
+  readonly states: readonly TargetState[];
+  /** Band extremum of the structure (eV). */
+  readonly edge_eV: number;
+  /** Continuum edge (eV). */
+  readonly barrier_eV: number;
+}
+
+export interface TargetTransition {
+  readonly label: string;
+  readonly energy_eV: number;
+  readonly overlap2: number;
+  /** Intersubband lines of a layer stack only. */
+  readonly oscillator_strength?: number;
+}
+
+/** Layer data the grower's constraints read; a wire has none (constraints are refused for it at compile time). */
+export interface TargetLayer {
+  readonly index: number;
+  readonly thickness_nm: number;
+  readonly material: { readonly criticalThickness_nm: number; readonly EgG: number; readonly EgX: number; readonly EgL: number };
+}
+
+/**
+ * What objectives read from a solve: the part a well's SolveResult and a wire's WireSolveResult
+ * share, plus the stack's layers when there are any. Both results satisfy it structurally.
+ */
+export interface TargetSource {
+  readonly bands: Readonly<Record<BandName, TargetBand>>;
+  readonly transitions: readonly TargetTransition[];
+  readonly structure: { readonly temperature_K: number; readonly layers?: readonly TargetLayer[]; readonly total_nm?: number };
+}
+
+/** What a spec solves: a layer stack or a wire cross-section (some targets apply to one only). */
+export type Geometry = 'stack' | 'wire';
 
 export type ObjectiveRole = 'target' | 'figure' | 'constraint';
 
@@ -35,9 +79,9 @@ export interface Objective<T> {
   readonly needsWavefunctions: (target: T) => boolean;
   /** State labels evaluate reads ("e1", "hh2"), or a band name ("electron") for all its states; a search solves only those. */
   readonly statesNeeded: (target: T) => readonly string[];
-  /** Throws InputError (naming `field`) for a target that can never be evaluated, e.g. a malformed state label. */
-  readonly check: (target: T, field: string) => void;
-  readonly evaluate: (target: T, result: SolveResult) => Evaluation;
+  /** Throws InputError (naming `field`) for a target that can never be evaluated, e.g. a malformed state label or a layer constraint on a wire. */
+  readonly check: (target: T, field: string, geometry: Geometry) => void;
+  readonly evaluate: (target: T, result: TargetSource) => Evaluation;
 }
 
 /** Missing states are scored as if they sat at their band's continuum edge, plus this much, so the loss stays continuous enough for the simplex and still prefers designs where the state exists. */

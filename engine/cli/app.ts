@@ -11,7 +11,7 @@ import { ROBUST_SAMPLES } from './design.js';
 import { runCampaignCommand } from './campaign.js';
 import { runMerge } from './merge.js';
 import { defaultWorkers } from '../pool.js';
-import { DEFAULT_DESIGN_OPTIONS } from '../design/search.js';
+import { DEFAULT_DESIGN_OPTIONS, DEFAULT_WIRE_DESIGN_OPTIONS } from '../design/search.js';
 
 /** Runs the command line and returns what to print; main() below does the printing. */
 export async function cli(argv: string[]): Promise<Outcome> {
@@ -32,12 +32,12 @@ export async function cli(argv: string[]): Promise<Outcome> {
     })
     .command('design <spec>', 'inverse design: ranked, growable designs for the spec\'s targets', (y) =>
       y.positional('spec', { type: 'string', demandOption: true, describe: 'spec file with vary: and targets:' })
-        .option('starts', { type: 'number', default: DEFAULT_DESIGN_OPTIONS.starts, describe: 'Nelder–Mead starts (Latin hypercube)' })
+        .option('starts', { type: 'number', describe: `Nelder–Mead starts (Latin hypercube); default ${DEFAULT_DESIGN_OPTIONS.starts} for stacks, ${DEFAULT_WIRE_DESIGN_OPTIONS.starts} for wires` })
         .option('seed', { type: 'number', default: DEFAULT_DESIGN_OPTIONS.seed, describe: 'seed of the start design' })
         .option('top', { type: 'number', default: DEFAULT_DESIGN_OPTIONS.top, describe: 'designs to keep' })
         .option('workers', { type: 'number', default: defaultWorkers(), describe: 'worker threads' })
         .option('step', { type: 'number', default: DEFAULT_DESIGN_OPTIONS.compositionStep, describe: 'grower\'s composition step for alloy fractions' })
-        .option('evaluations', { type: 'number', default: DEFAULT_DESIGN_OPTIONS.maxEvaluations, describe: 'Nelder–Mead evaluation budget per start' })
+        .option('evaluations', { type: 'number', describe: `Nelder–Mead evaluation budget per start; default ${DEFAULT_DESIGN_OPTIONS.maxEvaluations} for stacks, ${DEFAULT_WIRE_DESIGN_OPTIONS.maxEvaluations} for wires` })
         .option('out', { type: 'string', describe: 'folder for design-N.yaml specs and ranking.csv' })
         .option('json', { type: 'boolean', default: false, describe: 'machine-readable output on stdout' })
         .option('robust', { type: 'boolean', default: false, describe: `rank the top designs by Monte Carlo growth yield (${ROBUST_SAMPLES} samples, default growth errors of "wellsmith tolerance"), then by loss` })

@@ -1,7 +1,9 @@
 /** `wellsmith design SPEC`: ranked, growable designs for the spec's targets. */
 import { join } from 'node:path';
 import { describeObjectives } from '../../objectives/index.js';
-import { design, type Design, type DesignResult } from '../design/search.js';
+import { defaultDesignOptions, design, type Design, type DesignResult } from '../design/search.js';
+import { isWireSolve } from '../design/problem.js';
+import { wireJson } from '../wire/describe.js';
 import { designSpecText } from '../design/write.js';
 import { loadSpecFile } from '../spec/load.js';
 import type { Spec } from '../spec/schema.js';
@@ -17,12 +19,13 @@ import { DEFAULT_TOLERANCE } from '../tolerance/analyse.js';
 
 export interface DesignArgs {
   readonly spec: string;
-  readonly starts: number;
+  /** Starts and evaluations per start; when absent, the defaults for the spec's geometry (defaultDesignOptions). */
+  readonly starts?: number | undefined;
   readonly seed: number;
   readonly top: number;
   readonly workers: number;
   readonly step: number;
-  readonly evaluations: number;
+  readonly evaluations?: number | undefined;
   readonly out: string | undefined;
   readonly json: boolean;
   /** Re-rank the top designs by Monte Carlo growth yield (ROBUST_SAMPLES samples each). */
@@ -47,7 +50,7 @@ function evaluationCell(e: Design['evaluations'][number]): string {
   return `${achievedCell(e)} (${e.residual >= 0 ? '+' : ''}${e.residual.toFixed(2)})${e.satisfied ? '' : ' ✗'}`;
 }
 
-/** Design JSON: the spec's variables, the resolved stack and the same transitions[] shape as solve. */
+/** Design JSON: the spec's variables, the resolved stack (or wire) and the same transitions[] shape as solve. */
 export function designJson(r: DesignResult): unknown {
   return {
     status: r.status,
@@ -64,7 +67,7 @@ export function designJson(r: DesignResult): unknown {
       targets: d.evaluations,
       critical_thickness_margin: d.criticalMargin,
       start: d.start,
-      ...(solveJson(d.result, false) as object),
+      ...((isWireSolve(d.result) ? wireJson(d.result, false) : solveJson(d.result, false)) as object),
     })),
   };
 }
@@ -72,11 +75,13 @@ export function designJson(r: DesignResult): unknown {
 export function describeDesign(r: DesignResult, spec: Spec): string {
   const first = r.designs[0];
   if (!first) return `status: ${r.status}: ${r.message}`;
+  // A wire's strain is not modelled, so it has no critical-thickness margin to show.
+  const margin = !isWireSolve(first.result);
   const header = ['rank', ...first.variables.map((v) => (v.kind === 'fraction' ? v.name : `${v.name} (nm / ML)`)),
-    ...first.evaluations.map((e) => e.label), 'loss', 'h_c margin'];
+    ...first.evaluations.map((e) => e.label), 'loss', ...(margin ? ['h_c margin'] : [])];
   const rows = r.designs.map((d) => [String(d.rank), ...d.variables.map((v) => `${variableCell(v)}${v.atBound ? ` (${v.atBound} bound)` : ''}`),
     ...d.evaluations.map(evaluationCell),
-    sig(d.loss, 3), `${fixed(d.criticalMargin * 100, 0)} %`]);
+    sig(d.loss, 3), ...(margin ? [`${fixed(d.criticalMargin * 100, 0)} %`] : [])]);
   const lines = [spec.title ? `${spec.title}\n` : '', `Designs (${r.starts} starts, seed ${r.seed}, ${r.evaluations} solves${r.failures ? `, ${r.failures} failed candidates` : ''}); residuals in window half-widths, |r| ≤ 1 meets the target`, table(header, rows)];
   if (r.status !== 'ok') {
     const bound = first.variables.filter((v) => v.atBound).map((v) => `${v.name} at its ${v.atBound} bound`);
@@ -103,15 +108,18 @@ export async function runDesign(args: DesignArgs): Promise<Outcome> {
   const bar = progressBar('design');
   try {
     for (const [name, v, min] of [['--starts', args.starts, 1], ['--top', args.top, 1], ['--workers', args.workers, 1], ['--evaluations', args.evaluations, 10]] as const) {
-      if (!Number.isInteger(v) || v < min) throw new InputError('bad-value', `${name}: must be a whole number ≥ ${min}, got ${v}`);
+      if (v !== undefined && (!Number.isInteger(v) || v < min)) throw new InputError('bad-value', `${name}: must be a whole number ≥ ${min}, got ${v}`);
     }
     if (!Number.isSafeInteger(args.seed) || args.seed < 0) throw new InputError('bad-value', `--seed: must be a whole number ≥ 0, got ${args.seed}`);
     if (!(args.step > 0 && args.step <= 0.1)) throw new InputError('bad-value', `--step: the composition step must lie in (0, 0.1], got ${args.step}`);
     const loaded = loadSpecFile(args.spec);
     locate = loaded.locate;
+    if (args.robust && loaded.spec.wire !== undefined) throw new InputError('bad-value', '--robust: growth-yield ranking perturbs the layers of a stack and a wire spec has none; drop --robust for this spec');
     let best = Infinity;
+    const defaults = defaultDesignOptions(loaded.spec);
+    const starts = args.starts ?? defaults.starts;
     const result = await design(loaded.spec, {
-      starts: args.starts, seed: args.seed, top: args.top, workers: args.workers, compositionStep: args.step, maxEvaluations: args.evaluations,
+      starts, seed: args.seed, top: args.top, workers: args.workers, compositionStep: args.step, maxEvaluations: args.evaluations ?? defaults.maxEvaluations,
       onProgress: (done, total, last) => {
         if (last.type === 'design-start') best = Math.min(best, last.snapped.loss);
         bar.update(done, total, `best loss ${sig(best, 3)}`);

@@ -1,17 +1,23 @@
 /**
  * A design problem: the spec's free variables and compiled targets, and the evaluation of one
- * candidate (variable values -> structure -> solve -> scored targets). Numerical trouble in one
- * candidate makes that candidate infeasible (loss +Infinity) and is counted; it never stops a search.
+ * candidate (variable values -> structure -> solve -> scored targets). A spec with a `wire:`
+ * section is solved as a wire cross-section, on coarse search settings (see searchWireSettings).
+ * Numerical trouble in one candidate makes that candidate infeasible (loss +Infinity) and is
+ * counted; it never stops a search.
  */
 import { InputError } from '../errors.js';
 import { compileTargets, scoreTargets, needsWavefunctions, statesNeeded, type CompiledTarget, type Scored } from '../../objectives/index.js';
+import type { Geometry } from '../../objectives/types.js';
 import type { BandName } from '../profile.js';
 import { solveStructure, settingsOf, type SolveResult, type SolverSettings } from '../solve.js';
 import { buildStructure, variablesOf, type VariableInfo } from '../structure.js';
 import type { Spec } from '../spec/schema.js';
+import { buildWireStructure, type WireSettings } from '../wire/structure.js';
+import { solveWire, solveWireStructure, type WireSolveResult } from '../wire/solve.js';
 
 export interface DesignProblem {
   readonly spec: Spec;
+  readonly geometry: Geometry;
   readonly variables: readonly VariableInfo[];
   readonly targets: readonly CompiledTarget[];
   readonly settings: SolverSettings;
@@ -21,26 +27,62 @@ export interface DesignProblem {
   readonly states: Partial<Record<BandName, number>>;
 }
 
+/** A solve of either geometry; objectives read the part they share (objectives/types.ts TargetSource). */
+export type DesignSolve = SolveResult | WireSolveResult;
+
+/** Whether a design's solve is of a wire (only a wire result carries |ψ|² maps). */
+export const isWireSolve = (r: DesignSolve): r is WireSolveResult => 'maps' in r;
+
+/**
+ * Coarsest grid (nm) and loosest edge tolerance (eV) of a wire solve inside a search. Measured on
+ * the GaAs/Al0.3Ga0.7As rectangle of runs/wire-spacing.yaml (Node 20, one thread): 1 nm / 2 meV
+ * with the two electron and one heavy-hole subbands its targets read takes about 0.1 s per
+ * candidate, against about 0.45 s for the spec's own 0.5 nm / 0.5 meV with 3 subbands per band,
+ * and moves e1–e2 at 10 × 6 nm by 0.03 meV. The ranked designs are re-solved with the spec's
+ * own settings, and re-ranked on that solve.
+ */
+export const SEARCH_WIRE_GRID_NM = 1;
+export const SEARCH_WIRE_TOLERANCE_EV = 2e-3;
+
+/** The spec's wire settings made no finer than the search's. */
+export const searchWireSettings = (s: WireSettings): WireSettings =>
+  ({ ...s, grid_nm: Math.max(s.grid_nm, SEARCH_WIRE_GRID_NM), tolerance_eV: Math.max(s.tolerance_eV, SEARCH_WIRE_TOLERANCE_EV) });
+
 export function prepareDesign(spec: Spec): DesignProblem {
   const variables = variablesOf(spec);
   if (variables.length === 0) throw new InputError('bad-value', 'vary: a design needs at least one free variable with bounds, e.g. vary: { w: { from: 4 nm, to: 10 nm } }', 'vary');
-  const targets = compileTargets(spec.targets);
+  const geometry: Geometry = spec.wire === undefined ? 'stack' : 'wire';
+  const targets = compileTargets(spec.targets, geometry);
   if (!targets.some((t) => t.objective.kind !== 'constraint')) throw new InputError('bad-value', 'targets: a design needs at least one target, e.g. - { transition: e1-hh1, wavelength: 976 nm, within: 2 nm }', 'targets');
   // Resolve once at the centre of the box so that bad materials or variable references fail here, as input errors, not as infeasible candidates.
-  buildStructure(spec, valuesOf(variables, variables.map((v) => (v.from + v.to) / 2)));
-  return { spec, variables, targets, settings: settingsOf(spec), wavefunctions: needsWavefunctions(targets), states: statesNeeded(targets) };
+  const centre = valuesOf(variables, variables.map((v) => (v.from + v.to) / 2));
+  if (geometry === 'wire') buildWireStructure(spec, centre);
+  else buildStructure(spec, centre);
+  return { spec, geometry, variables, targets, settings: settingsOf(spec), wavefunctions: needsWavefunctions(targets), states: statesNeeded(targets) };
 }
 
 export const valuesOf = (variables: readonly VariableInfo[], x: readonly number[]): Record<string, number> =>
   Object.fromEntries(variables.map((v, i) => [v.name, x[i]!]));
 
 export type Evaluated =
-  | { readonly ok: true; readonly loss: number; readonly scored: Scored; readonly result: SolveResult }
+  | { readonly ok: true; readonly loss: number; readonly scored: Scored; readonly result: DesignSolve }
   | { readonly ok: false; readonly loss: number; readonly error: string };
+
+/** The search's solve of a candidate: wells as configured (only the states targets read), wires on coarse settings. */
+function searchSolve(problem: DesignProblem, values: Readonly<Record<string, number>>): DesignSolve {
+  if (problem.geometry === 'stack') return solveStructure(buildStructure(problem.spec, values), problem.settings, { wavefunctions: problem.wavefunctions, states: problem.states });
+  const structure = buildWireStructure(problem.spec, values);
+  return solveWireStructure({ ...structure, settings: searchWireSettings(structure.settings) }, { states: problem.states });
+}
+
+/** The full solve of a design with the spec's own settings (what `wellsmith solve` reports). */
+export function fullSolve(problem: DesignProblem, values: Readonly<Record<string, number>>): DesignSolve {
+  return problem.geometry === 'stack' ? solveStructure(buildStructure(problem.spec, values), problem.settings) : solveWire(problem.spec, values);
+}
 
 export function evaluateDesign(problem: DesignProblem, values: Readonly<Record<string, number>>): Evaluated {
   try {
-    const result = solveStructure(buildStructure(problem.spec, values), problem.settings, { wavefunctions: problem.wavefunctions, states: problem.states });
+    const result = searchSolve(problem, values);
     const scored = scoreTargets(problem.targets, result);
     return Number.isFinite(scored.loss) ? { ok: true, loss: scored.loss, scored, result } : { ok: false, loss: Infinity, error: 'loss is not finite' };
   } catch (e) {

@@ -7,11 +7,10 @@
  */
 import { type Evaluation } from '../../objectives/types.js';
 import { runTasks, type PoolOptions } from '../pool.js';
-import { solveStructure, type SolveResult } from '../solve.js';
 import type { Spec } from '../spec/schema.js';
-import { buildStructure, type VariableInfo } from '../structure.js';
+import type { VariableInfo } from '../structure.js';
 import { scoreTargets } from '../../objectives/index.js';
-import { prepareDesign } from './problem.js';
+import { fullSolve, isWireSolve, prepareDesign, type DesignSolve } from './problem.js';
 import type { StartOutcome, StartTask } from './start.js';
 import { startPoints } from './starts.js';
 
@@ -29,13 +28,24 @@ export interface DesignOptions {
 
 export const DEFAULT_DESIGN_OPTIONS: Omit<DesignOptions, 'workers'> = { starts: 16, seed: 1, top: 5, compositionStep: 0.001, maxEvaluations: 300 };
 
+/**
+ * Defaults for a wire spec. A coarse wire solve costs about 0.1 s (problem.ts): 8 starts × 60
+ * evaluations (plus 2^d snapping points each) came to 462 solves and 17.5 s on 2 workers for
+ * runs/wire-spacing.yaml (two size variables), where the stack defaults (16 × 300) would take
+ * about ten times as long.
+ */
+export const DEFAULT_WIRE_DESIGN_OPTIONS: Omit<DesignOptions, 'workers'> = { ...DEFAULT_DESIGN_OPTIONS, starts: 8, maxEvaluations: 60 };
+
+/** The default options for a spec: wire specs get the smaller wire budget. */
+export const defaultDesignOptions = (spec: Spec): Omit<DesignOptions, 'workers'> => (spec.wire === undefined ? DEFAULT_DESIGN_OPTIONS : DEFAULT_WIRE_DESIGN_OPTIONS);
+
 export interface DesignVariable {
   readonly name: string;
   readonly kind: 'length' | 'fraction';
   /** Value in the variable's own unit (nm, ML or fraction). */
   readonly value: number;
   readonly unit: 'nm' | 'ML' | '';
-  /** For lengths: thickness in nm and in monolayers of the first layer it sets. */
+  /** For lengths: thickness in nm and in monolayers of the first layer (or wire part) it sizes. */
   readonly nm?: number;
   readonly ml?: number;
   /** 'lower' or 'upper' when the value sits on its bound. */
@@ -49,11 +59,12 @@ export interface Design {
   readonly variables: readonly DesignVariable[];
   readonly values: Readonly<Record<string, number>>;
   readonly evaluations: readonly Evaluation[];
-  /** Smallest (h_c − t)/h_c over strained layers (1 = unstrained or far below; < 0 = above critical). */
+  /** Smallest (h_c − t)/h_c over strained layers (1 = unstrained or far below; < 0 = above critical); NaN for a wire, whose strain is not modelled. */
   readonly criticalMargin: number;
   /** The start that found it. */
   readonly start: number;
-  readonly result: SolveResult;
+  /** The full solve with the spec's own settings (a SolveResult, or a WireSolveResult for a wire spec). */
+  readonly result: DesignSolve;
 }
 
 export type DesignStatus = 'ok' | 'infeasible' | 'no-finite-value';
@@ -81,14 +92,23 @@ function atBound(v: VariableInfo, value: number): DesignVariable['atBound'] {
   return value - v.from <= tol ? 'lower' : v.to - value <= tol ? 'upper' : null;
 }
 
-function describeVariables(spec: Spec, variables: readonly VariableInfo[], values: Readonly<Record<string, number>>, result: SolveResult): DesignVariable[] {
+/** Length in nm and monolayers of what a length variable sizes: the first stack layer, or the first wire dimension, set by it. */
+function sizeOf(spec: Spec, result: DesignSolve, name: string): { nm: number; ml: number } | undefined {
+  if (!isWireSolve(result)) {
+    const i = spec.stack.findIndex((l) => typeof l.thickness === 'string' && l.thickness.trim() === name);
+    const layer = result.structure.layers[i];
+    return layer ? { nm: layer.thickness_nm, ml: layer.monolayers } : undefined;
+  }
+  const d = result.structure.lengthVariables[name];
+  return d ? { nm: d.nm, ml: d.nm / d.monolayer_nm } : undefined;
+}
+
+function describeVariables(spec: Spec, variables: readonly VariableInfo[], values: Readonly<Record<string, number>>, result: DesignSolve): DesignVariable[] {
   return variables.map((v) => {
     const value = values[v.name]!;
     const base = { name: v.name, kind: v.kind, value, unit: v.unit, atBound: atBound(v, value) };
-    if (v.kind !== 'length') return base;
-    const i = spec.stack.findIndex((l) => typeof l.thickness === 'string' && l.thickness.trim() === v.name);
-    const layer = result.structure.layers[i];
-    return layer ? { ...base, nm: layer.thickness_nm, ml: layer.monolayers } : base;
+    const size = v.kind === 'length' ? sizeOf(spec, result, v.name) : undefined;
+    return size ? { ...base, ...size } : base;
   });
 }
 
@@ -127,10 +147,14 @@ export function rankDesigns(spec: Spec, outcomes: readonly StartOutcome[], optio
     })
     .slice(0, options.top);
 
-  const designs = unique.map((o, k): Design => {
-    const result = solveStructure(buildStructure(spec, o.snapped.values), problem.settings);
-    const scored = scoreTargets(problem.targets, result);
-    const margin = Math.min(1, ...result.structure.layers.map((l) => 1 - l.thickness_nm / l.material.criticalThickness_nm));
+  const solved = unique.map((o) => {
+    const result = fullSolve(problem, o.snapped.values);
+    return { o, result, scored: scoreTargets(problem.targets, result) };
+  });
+  // A wire search scores on coarse settings, so the full solves may reorder the designs; for a stack this sort keeps the order.
+  solved.sort((a, b) => a.scored.loss - b.scored.loss || a.o.index - b.o.index);
+  const designs = solved.map(({ o, result, scored }, k): Design => {
+    const margin = isWireSolve(result) ? NaN : Math.min(1, ...result.structure.layers.map((l) => 1 - l.thickness_nm / l.material.criticalThickness_nm));
     return {
       rank: k + 1,
       loss: scored.loss,

@@ -1,9 +1,11 @@
 /**
  * Growable designs: a continuous optimum is moved to the lattice a grower can realise — whole
- * monolayers for thicknesses, a composition step (default 0.001) for fractions — by evaluating the
- * neighbouring lattice points (floor and ceiling in every variable) and keeping the best.
+ * monolayers for thicknesses and wire dimensions (of the material each one sizes), a composition
+ * step (default 0.001) for fractions — by evaluating the neighbouring lattice points (floor and
+ * ceiling in every variable) and keeping the best.
  */
 import { buildStructure, type VariableInfo } from '../structure.js';
+import { buildWireStructure } from '../wire/structure.js';
 import { evaluateDesign, valuesOf, type DesignProblem, type Evaluated } from './problem.js';
 
 /** Above this many variables only the nearest lattice point is tried in the extra dimensions (2^d grows fast). */
@@ -33,8 +35,9 @@ function lengthChoices(v: VariableInfo, x: number, monolayer_nm: number): number
   return [...new Set(ks)].map((q) => (v.unit === 'ML' ? q : q * monolayer_nm));
 }
 
-/** The monolayer (nm) of the first layer whose thickness is the variable `name`, in the structure at `values`. */
+/** The monolayer (nm) of the first layer (or wire part) whose size is the variable `name`, in the structure at `values`. */
 function monolayerOf(problem: DesignProblem, values: Readonly<Record<string, number>>, name: string): number {
+  if (problem.geometry === 'wire') return buildWireStructure(problem.spec, values).lengthVariables[name]!.monolayer_nm;
   const i = problem.spec.stack.findIndex((l) => typeof l.thickness === 'string' && l.thickness.trim() === name);
   const s = buildStructure(problem.spec, values);
   return s.layers[i]!.monolayer_nm;

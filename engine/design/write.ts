@@ -18,5 +18,8 @@ export function designSpec(spec: Spec, values: Readonly<Record<string, number>>)
 
 export function designSpecText(spec: Spec, values: Readonly<Record<string, number>>, header: string): string {
   const comment = header.split('\n').map((l) => `# ${l}`).join('\n');
-  return `${comment}\n${stringify(designSpec(spec, values), { lineWidth: 0 })}`;
+  const full = designSpec(spec, values);
+  // A wire spec's parsed form carries an empty stack, which the schema refuses when written out.
+  const { stack, ...wire } = full;
+  return `${comment}\n${stringify(full.wire !== undefined && stack.length === 0 ? wire : full, { lineWidth: 0 })}`;
 }

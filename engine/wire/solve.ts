@@ -7,6 +7,7 @@
  * on wires too.
  */
 import { HC_EV_NM, wavenumberPerCm } from '../constants.js';
+import { InputError } from '../errors.js';
 import type { BandName } from '../profile.js';
 import type { Spec } from '../spec/schema.js';
 import { nominalVariables, PARAMETER_SET } from '../structure.js';
@@ -120,6 +121,11 @@ export function wireBox(s: WireStructure): CrossSectionBox {
   return { x0_nm: x0, y0_nm: y0, width_nm: w, height_nm: hgt };
 }
 
+export interface WireSolveOptions {
+  /** Subbands sought in a band instead of settings.states (0 skips the band: no states, no envelopes); a design search asks only for what its targets read. */
+  readonly states?: Partial<Record<BandName, number>>;
+}
+
 /**
  * Bound subbands, transitions, 1-D DOS and |ψ|² maps of a wire structure.
  *
@@ -129,19 +135,25 @@ export function wireBox(s: WireStructure): CrossSectionBox {
  * one decay length ħ/√(2mΔ) of the barrier edge is pushed up slightly. States at or above the
  * barrier edge are box states of the wall, not of the wire, and are dropped. Units: eV, nm, m0.
  */
-export function solveWireStructure(structure: WireStructure): WireSolveResult {
+export function solveWireStructure(structure: WireStructure, options: WireSolveOptions = {}): WireSolveResult {
   const settings = structure.settings;
   const box = wireBox(structure);
   const bands = {} as Record<BandName, WireBandResult>;
-  const raw = {} as Record<BandName, { psi: readonly Float64Array[]; nx: number; ny: number }>;
+  const raw = {} as Partial<Record<BandName, { psi: readonly Float64Array[]; nx: number; ny: number }>>;
+  const wanted = (band: BandName): number => options.states?.[band] ?? settings.states;
+  if (BANDS.every((b) => wanted(b) === 0)) throw new InputError('bad-value', 'states: every band is skipped (0 states); ask for at least one subband of one band', 'states');
   for (const band of BANDS) {
     const table = structure.materials.map((m) => bandMaterial(m, band));
     const sign = band === 'electron' ? 1 : -1;
-    const at = (x: number, y: number): CrossSectionMaterial => table[materialAt(structure, x, y)]!;
-    const build = (h: number) => sampleCrossSection(box, h, at);
-    const r = solveCrossSectionConverged(build, settings.states, { h_nm: settings.grid_nm, tolerance_eV: settings.tolerance_eV });
     const barrier = table[0]!.V;
     const vmin = Math.min(...table.map((t) => t.V));
+    if (wanted(band) === 0) {
+      bands[band] = { states: [], edge_eV: sign * vmin, barrier_eV: sign * barrier, evaluations: 0, errorEstimate_meV: 0, extrapolated: false, converged: true };
+      continue;
+    }
+    const at = (x: number, y: number): CrossSectionMaterial => table[materialAt(structure, x, y)]!;
+    const build = (h: number) => sampleCrossSection(box, h, at);
+    const r = solveCrossSectionConverged(build, wanted(band), { h_nm: settings.grid_nm, tolerance_eV: settings.tolerance_eV });
     const [nx, ny] = r.gridSize;
     const dx = box.width_nm / (nx + 1);
     const dy = box.height_nm / (ny + 1);
@@ -167,9 +179,10 @@ export function solveWireStructure(structure: WireStructure): WireSolveResult {
     raw[band] = { psi: kept.map((k) => k.psi), nx, ny };
   }
 
-  const common = commonGrid(box, BANDS.map((b) => raw[b]), (x, y) => materialAt(structure, x, y));
-  const psi = {} as Record<BandName, Float64Array[]>;
-  for (const [k, band] of BANDS.entries()) psi[band] = common.psi[k]!;
+  const solved = BANDS.filter((b) => raw[b] !== undefined);
+  const common = commonGrid(box, solved.map((b) => raw[b]!), (x, y) => materialAt(structure, x, y));
+  const psi: Record<BandName, Float64Array[]> = { electron: [], heavy_hole: [], light_hole: [] };
+  for (const [k, band] of solved.entries()) psi[band] = common.psi[k]!;
 
   const transitions: WireTransition[] = [];
   const photon = (dE: number): Pick<WireTransition, 'energy_eV' | 'wavelength_nm' | 'wavenumber_per_cm'> => ({ energy_eV: dE, wavelength_nm: HC_EV_NM / dE, wavenumber_per_cm: wavenumberPerCm(dE) });
@@ -190,7 +203,7 @@ export function solveWireStructure(structure: WireStructure): WireSolveResult {
   const psi2 = {} as Record<BandName, Float64Array[]>;
   for (const band of BANDS) psi2[band] = psi[band].map((v) => v.map((x) => x * x));
 
-  const missing = BANDS.filter((b) => bands[b].states.length === 0);
+  const missing = solved.filter((b) => bands[b].states.length === 0);
   const unconverged = BANDS.filter((b) => !bands[b].converged);
   // Same rule as wells: a missing light-hole (or heavy-hole) band alone is common under strain and not a failure.
   const bound = missing.length === 0 || (bands.electron.states.length > 0 && missing.length < 2);
@@ -242,6 +255,6 @@ function wireDos(bands: Readonly<Record<BandName, WireBandResult>>, gamma: numbe
 }
 
 /** Library entry point for a spec with a `wire:` section, at the given (default: nominal) variable values. */
-export function solveWire(spec: Spec, values: Readonly<Record<string, number>> = nominalVariables(spec)): WireSolveResult {
-  return solveWireStructure(buildWireStructure(spec, values));
+export function solveWire(spec: Spec, values: Readonly<Record<string, number>> = nominalVariables(spec), options: WireSolveOptions = {}): WireSolveResult {
+  return solveWireStructure(buildWireStructure(spec, values), options);
 }

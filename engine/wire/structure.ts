@@ -59,6 +59,8 @@ export interface WireStructure {
   readonly bounds: { readonly x0: number; readonly x1: number; readonly y0: number; readonly y1: number };
   readonly settings: WireSettings;
   readonly variables: Readonly<Record<string, number>>;
+  /** Each length variable the shape uses: the first field it sizes, its length (nm) and that part's monolayer (nm), for snapping to whole monolayers. */
+  readonly lengthVariables: Readonly<Record<string, { readonly field: string; readonly nm: number; readonly monolayer_nm: number }>>;
 }
 
 export const DEFAULT_WIRE_SETTINGS: WireSettings = { grid_nm: 0.5, margin_nm: 10, states: 6, tolerance_eV: 5e-4, broadening_eV: 1e-3 };
@@ -143,10 +145,12 @@ export function buildWireStructure(spec: Spec, values: Readonly<Record<string, n
   if (!wire) throw new InputError('schema', 'wire: this spec has no "wire:" section; solve it as a layer stack', 'wire');
   const { materials, substrate, temperature_K, offsetRule } = resolveMaterials(spec, wire, values);
   const dimensions: Record<string, number> = {};
+  const lengthVariables: Record<string, WireStructure['lengthVariables'][string]> = {};
   const ml = (index: number): number => materials[index]!.material.monolayer_nm;
   const len = (raw: string | number, field: string, material: number, positive = true): number => {
     const v = lengthOf(raw, field, spec, values, ml(material), positive);
     dimensions[field] = v;
+    if (typeof raw === 'string' && !splitQuantity(raw)) lengthVariables[raw.trim()] ??= { field, nm: v, monolayer_nm: ml(material) };
     return v;
   };
   const primitives: Primitive[] = [];
@@ -214,6 +218,7 @@ export function buildWireStructure(spec: Spec, values: Readonly<Record<string, n
     bounds,
     settings,
     variables: { ...values },
+    lengthVariables,
   };
 }
 
