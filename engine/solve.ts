@@ -242,17 +242,18 @@ export function solve(spec: Spec, values: Readonly<Record<string, number>> = nom
   return solveStructure(buildStructure(spec, values), settingsOf(spec));
 }
 
-/** A state by its label ("e1", "hh2", "lh1"), or undefined when that state is not bound. */
-export function findState(r: SolveResult, label: string): (StateResult & { readonly band: BandName }) | undefined {
-  for (const band of BANDS) {
-    const s = r.bands[band].states.find((x) => x.label === label);
-    if (s) return { ...s, band };
-  }
-  return undefined;
+/**
+ * A state by its label ("e1", "hh2", "lh1"), or undefined when that state is not bound. Works on
+ * any result of the solve shape (wells, wires, the objectives' TargetSource).
+ */
+export function findState<S extends { readonly label: string }>(r: { readonly bands: Readonly<Record<BandName, { readonly states: readonly S[] }>> }, label: string): S | undefined {
+  const b = bandOfLabel(label);
+  return b ? r.bands[b.band].states.find((x) => x.label === label) : undefined;
 }
 
 /** A transition by its label ("e1-hh1", "e1-e2"), or undefined when a state of it is missing. */
-export const findTransition = (r: SolveResult, label: string): TransitionResult | undefined => r.transitions.find((t) => t.label === label);
+export const findTransition = <T extends { readonly label: string }>(r: { readonly transitions: readonly T[] }, label: string): T | undefined =>
+  r.transitions.find((t) => t.label === label);
 
 /** The band a state label belongs to ("hh2" -> heavy_hole), or undefined for a malformed label. */
 export function bandOfLabel(label: string): { band: BandName; index: number } | undefined {

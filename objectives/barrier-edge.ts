@@ -5,9 +5,9 @@
  */
 import { z } from 'zod';
 import { InputError } from '../engine/errors.js';
-import { bandOfLabel } from '../engine/solve.js';
+import { bandOfLabel, findState } from '../engine/solve.js';
 import { MISSING_STATE_PENALTY, type Objective } from './types.js';
-import { checkStateLabel, energyOf, stateOf, quantity, weight } from './common.js';
+import { checkStateLabel, energyOf, quantity, weight } from './common.js';
 
 const schema = z.object({
   at_barrier_edge: z.string().describe('State to place at the barrier edge, e.g. e2'),
@@ -29,7 +29,7 @@ export const barrierEdgeObjective: Objective<BarrierEdgeTarget> = {
   evaluate: (t, r) => {
     const band = bandOfLabel(t.at_barrier_edge)!.band;
     const within = energyOf(t.within, 'within') * 1000;
-    const s = stateOf(r, t.at_barrier_edge);
+    const s = findState(r, t.at_barrier_edge);
     const sign = band === 'electron' ? 1 : -1;
     // Depth below the edge in meV (≥ 0 for a bound state); a missing state has left through the top.
     const depth = s ? sign * (r.bands[band].barrier_eV - s.energy_eV) * 1000 : 0;

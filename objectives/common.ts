@@ -1,10 +1,10 @@
 /** Pieces shared by the objective modules: reading quantities and scoring states that may be missing. */
 import { z } from 'zod';
 import { InputError } from '../engine/errors.js';
-import { bandOfLabel } from '../engine/solve.js';
+import { bandOfLabel, findState } from '../engine/solve.js';
 import { parseEnergy, parsePhotonEnergy } from '../engine/spec/units.js';
 import { HC_EV_NM, KB_EV_PER_K } from '../engine/constants.js';
-import type { TargetSource, TargetState, TargetTransition } from './types.js';
+import type { TargetSource } from './types.js';
 
 export const quantity = z.union([z.number(), z.string()]);
 export const weight = z.number().positive().optional().describe('Relative weight in the loss (default 1)');
@@ -27,18 +27,9 @@ export function transitionStates(label: string, field: string): [string, string]
   return [parts[0]!, parts[1]!];
 }
 
-/** A state by its label ("e1", "hh2"), or undefined when that state is not bound (or malformed). */
-export function stateOf(r: TargetSource, label: string): TargetState | undefined {
-  const b = bandOfLabel(label);
-  return b ? r.bands[b.band].states.find((x) => x.label === label) : undefined;
-}
-
-/** A transition by its label ("e1-hh1", "e1-e2"), or undefined when a state of it is missing. */
-export const transitionOf = (r: TargetSource, label: string): TargetTransition | undefined => r.transitions.find((t) => t.label === label);
-
 /** Energy of a state (eV, absolute) or, when it is not bound, its band's continuum edge. */
 export function stateEnergy(r: TargetSource, label: string): { energy: number; missing: boolean } {
-  const s = stateOf(r, label);
+  const s = findState(r, label);
   if (s) return { energy: s.energy_eV, missing: false };
   return { energy: r.bands[bandOfLabel(label)!.band].barrier_eV, missing: true };
 }

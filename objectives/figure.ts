@@ -2,7 +2,8 @@
 import { z } from 'zod';
 import { InputError } from '../engine/errors.js';
 import type { Objective } from './types.js';
-import { transitionOf, transitionStates } from './common.js';
+import { findTransition } from '../engine/solve.js';
+import { transitionStates } from './common.js';
 
 const schema = z.object({
   maximize: z.enum(['overlap', 'oscillator_strength']).describe('Figure to maximise'),
@@ -23,7 +24,7 @@ export const figureObjective: Objective<FigureTarget> = {
     if (t.maximize === 'oscillator_strength' && !b.startsWith('e')) throw new InputError('bad-value', `${field}.transition: an oscillator strength is for an intersubband transition such as e1-e2, got "${t.transition}"`, `${field}.transition`);
   },
   evaluate: (t, r) => {
-    const tr = transitionOf(r, t.transition);
+    const tr = findTransition(r, t.transition);
     const value = tr ? (t.maximize === 'overlap' ? tr.overlap2 : (tr.oscillator_strength ?? 0)) : 0;
     return {
       label: `${t.transition} ${t.maximize === 'overlap' ? 'overlap²' : 'oscillator strength'}`,

@@ -2,8 +2,8 @@
 import { z } from 'zod';
 import { InputError } from '../engine/errors.js';
 import { MISSING_STATE_PENALTY, type Objective } from './types.js';
-import { checkStateLabel, energyOf, stateOf, quantity, stateEnergy, weight } from './common.js';
-import { bandOfLabel } from '../engine/solve.js';
+import { checkStateLabel, energyOf, quantity, stateEnergy, weight } from './common.js';
+import { bandOfLabel, findState } from '../engine/solve.js';
 
 const schema = z.object({
   subband_edge: z.string().describe('State label: e1, hh1, lh2 …'),
@@ -36,7 +36,7 @@ export const subbandEdgeObjective: Objective<SubbandEdgeTarget> = {
     const goal = energyOf(t[m]!, m) * 1000;
     const within = energyOf(t.within, 'within') * 1000;
     const band = bandOfLabel(t.subband_edge)!.band;
-    const s = stateOf(r, t.subband_edge);
+    const s = findState(r, t.subband_edge);
     const e = stateEnergy(r, t.subband_edge);
     const edge = r.bands[band].edge_eV;
     const sign = band === 'electron' ? 1 : -1;

@@ -5,6 +5,7 @@ import { runSolve } from './solve.js';
 import { runMaterials } from './materials.js';
 import { runDesign, TARGET_HELP } from './design.js';
 import { runReport, runSolvePlot } from './report.js';
+import { REPORT_SAMPLES } from '../report/tolerance.js';
 import { runTolerance } from './tolerance.js';
 import { DEFAULT_TOLERANCE } from '../tolerance/analyse.js';
 import { ROBUST_SAMPLES } from './design.js';
@@ -63,8 +64,11 @@ export async function cli(argv: string[]): Promise<Outcome> {
     .command('report <input>', 'self-contained HTML report of a spec, or of solve --json / design --json output', (y) =>
       y.positional('input', { type: 'string', demandOption: true, describe: 'spec file (solved, targets scored) or a JSON file from solve/design --json' })
         .option('out', { type: 'string', describe: 'HTML file to write (default: INPUT with .html)' })
-        .option('growth-sheet', { type: 'string', describe: 'also write the growth sheet (per-layer shutter times) as CSV; needs growth.rates in the spec' }),
-    async (a) => { outcome = await runReport({ input: a.input!, out: a.out, growthSheet: a.growthSheet }); })
+        .option('growth-sheet', { type: 'string', describe: 'also write the growth sheet (per-layer shutter times) as CSV; needs growth.rates in the spec' })
+        .option('tolerance', { type: 'boolean', default: false, describe: 'add the growth-tolerance section (sensitivities, Monte Carlo yield, island lines); spec inputs with targets' })
+        .option('samples', { type: 'number', default: REPORT_SAMPLES, describe: 'Monte Carlo samples of --tolerance' })
+        .option('workers', { type: 'number', default: defaultWorkers(), describe: 'worker threads of --tolerance' }),
+    async (a) => { outcome = await runReport({ input: a.input!, out: a.out, growthSheet: a.growthSheet, tolerance: a.tolerance, samples: a.samples, workers: a.workers }); })
     .command('materials [formula]', 'material parameters at a temperature and on a substrate', (y) =>
       y.positional('formula', { type: 'string', describe: 'e.g. In0.2Ga0.8As (omit to list the binaries)' })
         .option('on', { type: 'string', describe: 'substrate the layer is strained on, e.g. GaAs' })

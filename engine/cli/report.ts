@@ -1,6 +1,8 @@
 /** `wellsmith report INPUT`: a self-contained HTML report, and optionally the growth sheet as CSV. */
 import { basename, dirname, extname, join } from 'node:path';
-import { bandDiagramSvg, buildReport, growthCsv, loadReportInput } from '../report/index.js';
+import { bandDiagramSvg, buildReport, growthCsv, loadReportInput, toleranceReport, type ReportInput } from '../report/index.js';
+import { nominalVariables } from '../structure.js';
+import { DEFAULT_TOLERANCE } from '../tolerance/analyse.js';
 import { loadSpecFile } from '../spec/load.js';
 import { solve } from '../solve.js';
 import { runSolve, type SolveArgs } from './solve.js';
@@ -12,6 +14,35 @@ export interface ReportArgs {
   readonly input: string;
   readonly out: string | undefined;
   readonly growthSheet: string | undefined;
+  /** Add the growth-tolerance section (spec inputs only). */
+  readonly tolerance: boolean;
+  /** Monte Carlo samples of the tolerance section. */
+  readonly samples: number;
+  readonly workers: number;
+}
+
+/** Exit code of a report: 1 when the physics it reports was not satisfiable. */
+function exitOf(input: ReportInput): number {
+  switch (input.kind) {
+    case 'solve': return input.result.status === 'ok' ? EXIT.ok : EXIT.physics;
+    case 'design': return input.status !== 'no-finite-value' ? EXIT.ok : EXIT.physics;
+    case 'tolerance': return input.report.result.status === 'ok' ? EXIT.ok : EXIT.physics;
+    case 'wire': return input.result.status === 'ok' ? EXIT.ok : EXIT.physics;
+  }
+}
+
+/**
+ * The input with the tolerance section's analysis added: spec inputs with targets only (only a
+ * spec's input is scored; a recorded result has no spec to perturb).
+ */
+async function withTolerance(input: ReportInput, args: ReportArgs): Promise<ReportInput> {
+  if (input.kind !== 'solve' || input.scored === null) {
+    throw new InputError('bad-value', `--tolerance: ${args.input} is not a spec with targets; give such a spec or a design-N.yaml written by "wellsmith design --out" (report "wellsmith tolerance --json" output without --tolerance)`, 'tolerance');
+  }
+  if (!Number.isInteger(args.samples) || args.samples < 0) throw new InputError('bad-value', `--samples: must be a whole number ≥ 0, got ${args.samples}; e.g. --samples 500`);
+  if (!Number.isInteger(args.workers) || args.workers < 1) throw new InputError('bad-value', `--workers: must be a whole number ≥ 1, got ${args.workers}`);
+  const spec = loadSpecFile(args.input).spec;
+  return { ...input, tolerance: await toleranceReport(spec, nominalVariables(spec), { ...DEFAULT_TOLERANCE, samples: args.samples, workers: args.workers }) };
 }
 
 /** Default output: INPUT with its extension replaced by .html, beside it. */
@@ -19,7 +50,8 @@ export const defaultReportPath = (input: string): string => join(dirname(input),
 
 export async function runReport(args: ReportArgs): Promise<Outcome> {
   try {
-    const input = loadReportInput(args.input);
+    const loaded = loadReportInput(args.input);
+    const input = args.tolerance ? await withTolerance(loaded, args) : loaded;
     const out = args.out ?? defaultReportPath(args.input);
     if (args.growthSheet !== undefined) {
       if (input.kind !== 'solve' || input.growth === null) {
@@ -28,8 +60,7 @@ export async function runReport(args: ReportArgs): Promise<Outcome> {
       writeFileAtomic(args.growthSheet, growthCsv(input.growth));
     }
     writeFileAtomic(out, await buildReport(input));
-    const ok = input.kind === 'solve' ? input.result.status === 'ok' : input.status !== 'no-finite-value';
-    return success(`report written to ${out}${args.growthSheet ? `; growth sheet to ${args.growthSheet}` : ''}\n`, ok ? EXIT.ok : EXIT.physics);
+    return success(`report written to ${out}${args.growthSheet ? `; growth sheet to ${args.growthSheet}` : ''}\n`, exitOf(input));
   } catch (e) {
     return failure(e);
   }

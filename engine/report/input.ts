@@ -3,7 +3,7 @@
  * values, targets scored, growth sheet from its `growth` section), or the JSON written by
  * `wellsmith solve --json` or `wellsmith design --json` (re-solved from the recorded structure and
  * solver settings, which reproduces the recorded energies exactly and restores the wavefunctions
- * that --json leaves out).
+ * that --json leaves out), or the JSON of `wellsmith tolerance --json` (its summary only).
  */
 import { readFileSync } from 'node:fs';
 import { InputError } from '../errors.js';
@@ -14,6 +14,9 @@ import { compileTargets, scoreTargets, type Scored } from '../../objectives/inde
 import type { Evaluation } from '../../objectives/types.js';
 import type { DesignVariable } from '../design/search.js';
 import { growthSheet, type GrowthSheet } from './growth.js';
+import { isWireJson, wireFromJson } from './wire.js';
+import { solveWire, type WireSolveResult } from '../wire/solve.js';
+import { isToleranceJson, toleranceFromJson, type ToleranceReport } from './tolerance.js';
 
 /** One ranked design as `design --json` records it. */
 export interface RankedDesign {
@@ -26,7 +29,9 @@ export interface RankedDesign {
 }
 
 export type ReportInput =
-  | { readonly kind: 'solve'; readonly origin: string; readonly result: SolveResult; readonly scored: Scored | null; readonly growth: GrowthSheet | null }
+  | { readonly kind: 'solve'; readonly origin: string; readonly result: SolveResult; readonly scored: Scored | null; readonly growth: GrowthSheet | null; readonly tolerance?: ToleranceReport }
+  | { readonly kind: 'tolerance'; readonly origin: string; readonly report: ToleranceReport }
+  | { readonly kind: 'wire'; readonly origin: string; readonly result: WireSolveResult }
   | { readonly kind: 'design'; readonly origin: string; readonly status: string; readonly message: string; readonly seed: number; readonly starts: number; readonly designs: readonly RankedDesign[]; readonly best: SolveResult };
 
 /** JSON as written by format.ts toJson: non-finite numbers were stored as strings. */
@@ -43,11 +48,8 @@ function resolveRecorded(v: Record<string, unknown>, where: string): SolveResult
 
 /** A report input from a spec already loaded. */
 export function inputFromSpec(loaded: LoadedSpec): ReportInput {
-  const solved = solve(loaded.spec);
-  if ('maps' in solved) {
-    throw new InputError('schema', `${loaded.origin}: the report does not draw wire cross-sections yet; use "wellsmith solve --json" for a wire's states`, 'wire');
-  }
-  const result: SolveResult = solved;
+  if (loaded.spec.wire !== undefined) return { kind: 'wire', origin: loaded.origin, result: solveWire(loaded.spec) };
+  const result = solve(loaded.spec);
   const targets = compileTargets(loaded.spec.targets);
   return {
     kind: 'solve',
@@ -66,7 +68,7 @@ export function inputFromText(text: string, origin: string): ReportInput {
     try {
       value = JSON.parse(text, reviveNumbers);
     } catch (e) {
-      throw new InputError('schema', `${origin}: not valid JSON (${(e as Error).message}); give a spec, or the output of "wellsmith solve --json" or "design --json"`);
+      throw new InputError('schema', `${origin}: not valid JSON (${(e as Error).message}); give a spec, or the output of "wellsmith solve --json", "design --json" or "tolerance --json"`);
     }
     if (isRecord(value) && Array.isArray(value.designs)) {
       const designs = value.designs.filter(isRecord);
@@ -79,6 +81,8 @@ export function inputFromText(text: string, origin: string): ReportInput {
         best: resolveRecorded(first, `${origin}: designs[0]`),
       };
     }
+    if (isWireJson(value)) return { kind: 'wire', origin, result: wireFromJson(value, origin) };
+    if (isToleranceJson(value)) return { kind: 'tolerance', origin, report: toleranceFromJson(value, origin) };
     if (isRecord(value) && 'structure' in value && 'bands' in value) {
       return { kind: 'solve', origin, result: resolveRecorded(value, origin), scored: null, growth: null };
     }

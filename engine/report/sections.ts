@@ -12,6 +12,8 @@ import { bandDiagramSpec, dosSpec, DIAGRAM_STATES } from './plots.js';
 import { renderSvg } from './render.js';
 import type { GrowthSheet } from './growth.js';
 import type { ReportInput } from './input.js';
+import { toleranceSection } from './tolerance.js';
+import { wireSections } from './wire.js';
 
 /** The band diagram with states as standalone SVG (also what `solve --plot` writes). */
 export const bandDiagramSvg = (r: SolveResult): Promise<string> => renderSvg(bandDiagramSpec(r));
@@ -109,8 +111,11 @@ export const SECTION_BUILDERS: { readonly [K in ReportInput['kind']]: Builder<K>
   solve: async (input) => [
     ...(input.scored ? [targetsSection(input.scored)] : []),
     ...(await solveSections(input.result)),
+    ...(input.tolerance ? [await toleranceSection(input.tolerance)] : []),
     ...(input.growth ? [growthSection(input.growth)] : []),
   ],
+  tolerance: async (input) => [await toleranceSection(input.report)],
+  wire: (input) => wireSections(input.result),
   design: async (input) => {
     const first = input.designs[0]!;
     const header = ['rank', ...first.variables.map((v) => (v.kind === 'fraction' ? v.name : `${v.name} (nm / ML)`)), ...first.targets.map((e) => e.label), 'loss', 'all met', 'h_c margin'];
@@ -132,5 +137,7 @@ export function sectionsOf(input: ReportInput): Promise<readonly Section[]> {
   switch (input.kind) {
     case 'solve': return SECTION_BUILDERS.solve(input);
     case 'design': return SECTION_BUILDERS.design(input);
+    case 'tolerance': return SECTION_BUILDERS.tolerance(input);
+    case 'wire': return SECTION_BUILDERS.wire(input);
   }
 }

@@ -1,0 +1,240 @@
+/**
+ * The growth-tolerance section of a report: sensitivity bars, the Monte Carlo histogram of each
+ * target quantity with its window and the yield, the distribution table and the monolayer-island
+ * lines. Computed here from a spec (`report --tolerance`), or read from `tolerance --json` output,
+ * which keeps only the summary of the samples (no histogram then).
+ */
+import type { TopLevelSpec } from 'vega-lite';
+import { InputError } from '../errors.js';
+import { fixed, sig } from '../cli/format.js';
+import { settingsOf, solveStructure } from '../solve.js';
+import type { Spec } from '../spec/schema.js';
+import { buildStructure } from '../structure.js';
+import { runSamples, summarise, tolerance, type ToleranceOptions, type ToleranceResult } from '../tolerance/analyse.js';
+import { prepareTolerance, type Measurement } from '../tolerance/measure.js';
+import { scoreTargets } from '../../objectives/index.js';
+import { escapeHtml, figureHtml, htmlTable, type Section } from './html.js';
+import { PALETTE } from './palette.js';
+import { renderSvg } from './render.js';
+
+/** Monte Carlo samples of `report --tolerance` unless --samples says otherwise: p5/p95 to about ±1 % of the samples. */
+export const REPORT_SAMPLES = 500;
+
+/** A target's window on its quantity's axis: goal ± halfWidth, in the quantity's unit. */
+export interface TargetWindow {
+  readonly goal: number;
+  readonly halfWidth: number;
+}
+
+export interface ToleranceReport {
+  readonly result: ToleranceResult;
+  /** Monte Carlo measurements in sample order; null for a recorded result, which keeps only their summary. */
+  readonly samples: readonly Measurement[] | null;
+  /** Per quantity (result.quantities order): the target window, or null where there is none (transition energies, one-sided or count targets). */
+  readonly windows: readonly (TargetWindow | null)[];
+}
+
+/** Relative agreement two samples must show for a window to be taken as goal ± |value − goal|/|residual|. */
+const LINEARITY = 1e-6;
+
+/**
+ * The window of each target quantity, read off its residuals: a window target scores
+ * r = (value − goal)/halfWidth, so halfWidth = |value − goal|/|r| from the measurement with the
+ * largest |r|, accepted only when the measurement with the smallest non-zero |r| gives the same
+ * width (one-sided and count targets, whose residuals are not linear in the value, get none).
+ */
+export function targetWindows(goals: readonly (number | null)[], quantities: number, measurements: readonly Measurement[]): (TargetWindow | null)[] {
+  return Array.from({ length: quantities }, (_, k) => {
+    const goal = goals[k];
+    if (goal === null || goal === undefined) return null;
+    const widths = measurements
+      .filter((m) => m.ok && Number.isFinite(m.values[k]) && Number.isFinite(m.residuals[k]) && Math.abs(m.residuals[k]!) > 1e-9)
+      .map((m) => ({ r: Math.abs(m.residuals[k]!), w: Math.abs(m.values[k]! - goal) / Math.abs(m.residuals[k]!) }))
+      .sort((a, b) => a.r - b.r);
+    const lo = widths[0];
+    const hi = widths[widths.length - 1];
+    if (!lo || !hi || lo === hi || !(hi.w > 0) || Math.abs(hi.w - lo.w) > LINEARITY * hi.w) return null;
+    return { goal, halfWidth: hi.w };
+  });
+}
+
+/**
+ * Full tolerance analysis of a spec at the given values, keeping the Monte Carlo samples for the
+ * histograms: engine/tolerance/analyse.ts `tolerance` for the sensitivities and island lines, and
+ * its own `runSamples` and `summarise` for the yield, so `result` is what `tolerance` returns.
+ */
+export async function toleranceReport(spec: Spec, values: Readonly<Record<string, number>>, options: ToleranceOptions): Promise<ToleranceReport> {
+  const base = await tolerance(spec, values, { ...options, samples: 0 });
+  if (base.status !== 'ok' || options.samples === 0) return { result: base, samples: null, windows: base.quantities.map(() => null) };
+  const samples = await runSamples(spec, values, options);
+  const result: ToleranceResult = { ...base, montecarlo: summarise(samples, base.quantities.length, options.seed, spec.stack.length, options.growth) };
+  const problem = prepareTolerance(spec, values);
+  const nominal = scoreTargets(problem.targets, solveStructure(buildStructure(spec, values), settingsOf(spec), { wavefunctions: problem.wavefunctions, states: problem.states }));
+  const goals = base.quantities.map((q, k) => (q.target && nominal.evaluations[k]?.role === 'target' ? nominal.evaluations[k]!.goal : null));
+  return { result, samples, windows: targetWindows(goals, base.quantities.length, [base.nominal, ...samples]) };
+}
+
+const isRecord = (v: unknown): v is Record<string, unknown> => typeof v === 'object' && v !== null && !Array.isArray(v);
+
+/** True for the JSON object `wellsmith tolerance --json` writes. */
+export const isToleranceJson = (v: unknown): v is Record<string, unknown> =>
+  isRecord(v) && Array.isArray(v.quantities) && Array.isArray(v.sensitivities) && isRecord(v.nominal) && 'montecarlo' in v;
+
+/** format.ts toJson writes NaN as null: read it back as NaN wherever a number belongs. */
+const num = (v: unknown): number => (typeof v === 'number' ? v : NaN);
+const nums = (v: unknown): number[] => (Array.isArray(v) ? v.map(num) : []);
+
+/** A ToleranceReport from `tolerance --json` output (no samples, hence no histograms or windows). */
+export function toleranceFromJson(v: Record<string, unknown>, origin: string): ToleranceReport {
+  const r = v as unknown as ToleranceResult;
+  if (!r.quantities.every((q) => isRecord(q) && typeof q.label === 'string')) {
+    throw new InputError('schema', `${origin}: "quantities" must list {label, unit, target} as "wellsmith tolerance --json" writes them; regenerate the file`);
+  }
+  const mc = r.montecarlo;
+  const result: ToleranceResult = {
+    ...r,
+    nominal: { ...r.nominal, values: nums(r.nominal.values), residuals: nums(r.nominal.residuals) },
+    sensitivities: r.sensitivities.map((s) => ({ ...s, minus: nums(s.minus), plus: nums(s.plus), impact: num(s.impact) })),
+    montecarlo: mc ? { ...mc, yield: num(mc.yield), distributions: mc.distributions.map((d) => ({ n: num(d.n), mean: num(d.mean), sigma: num(d.sigma), p5: num(d.p5), p50: num(d.p50), p95: num(d.p95) })) } : null,
+    islands: (r.islands ?? []).map((w) => ({ ...w, lines: w.lines.map((l) => ({ ...l, energy_eV: nums(l.energy_eV) as unknown as [number, number, number], splitting_meV: nums(l.splitting_meV) as unknown as [number, number], hwhm_meV: num(l.hwhm_meV) })) })),
+  };
+  return { result, samples: null, windows: result.quantities.map(() => null) };
+}
+
+/** Growth errors with a smaller impact (window half-widths) are left out of the bars; the table lists them all. */
+export const MIN_IMPACT = 0.01;
+
+const KIND_COLOURS = { domain: ['thickness', 'composition', 'growth-rate', 'temperature'], range: [PALETTE.indigo, PALETTE.amber, PALETTE.rose, PALETTE.sky] };
+
+/**
+ * Sensitivity bars: the impact of each one-at-a-time growth error (largest |Δ residual| over the
+ * targets, in window half-widths), largest first, with the rule at 1 where one error alone moves a
+ * target by half its window.
+ */
+export function sensitivitySpec(r: ToleranceResult): TopLevelSpec {
+  const rows = r.sensitivities.filter((s) => s.impact >= MIN_IMPACT).map((s) => ({ label: s.label, impact: s.impact, kind: s.kind }));
+  return {
+    $schema: 'https://vega.github.io/schema/vega-lite/v6.json',
+    width: 520,
+    height: Math.max(60, 22 * rows.length),
+    layer: [
+      {
+        data: { values: rows },
+        mark: { type: 'bar', height: 14 },
+        encoding: {
+          y: { field: 'label', type: 'nominal', title: null, sort: { field: 'impact', order: 'descending' }, axis: { labelLimit: 400 } },
+          x: { field: 'impact', type: 'quantitative', title: 'impact (window half-widths)' },
+          color: { field: 'kind', type: 'nominal', title: 'growth error', scale: KIND_COLOURS },
+        },
+      },
+      { data: { values: [{ x: 1 }] }, mark: { type: 'rule', color: PALETTE.ink, strokeDash: [4, 3] }, encoding: { x: { field: 'x', type: 'quantitative' } } },
+    ],
+  } as TopLevelSpec;
+}
+
+export interface HistogramBin { readonly x0: number; readonly x1: number; readonly count: number }
+
+/**
+ * Equal-width histogram of the finite values, about `bins` bins over their range. With a window,
+ * the width divides the window into whole bins and the edges fall on the window's, so each bin is
+ * wholly inside or outside it (a bin includes its lower edge; the top bin also its upper edge).
+ */
+export function histogram(values: readonly number[], bins = 30, window: TargetWindow | null = null): HistogramBin[] {
+  const v = values.filter(Number.isFinite);
+  if (v.length === 0) return [];
+  const lo = Math.min(...v);
+  const hi = Math.max(...v);
+  let width = hi > lo ? (hi - lo) / bins : Math.max(Math.abs(lo) * 1e-6, 1e-9);
+  let start = lo;
+  if (window) {
+    const edge = window.goal - window.halfWidth;
+    // Bins sized on the plotted span (values and window), so a narrow spread cannot split the window into thousands.
+    const span = Math.max(hi, window.goal + window.halfWidth) - Math.min(lo, edge);
+    width = (2 * window.halfWidth) / Math.max(1, Math.round((2 * window.halfWidth * bins) / span));
+    start = edge - Math.ceil((edge - lo) / width) * width;
+  }
+  const n = Math.max(1, Math.ceil((hi - start) / width));
+  const counts = new Array<number>(n).fill(0);
+  for (const x of v) counts[Math.min(n - 1, Math.max(0, Math.floor((x - start) / width)))]! += 1;
+  return counts.map((count, i) => ({ x0: start + i * width, x1: start + (i + 1) * width, count }));
+}
+
+/** Yield as printed in the report: percent with one decimal. */
+export const yieldText = (y: number): string => `yield ${fixed(y * 100, 1)} %`;
+
+/**
+ * Histogram of one quantity over the Monte Carlo samples, with the target window shaded, the goal
+ * as a dashed rule and the nominal value as a solid rule. x in the quantity's unit, y in samples.
+ */
+export function histogramSpec(label: string, unit: string, values: readonly number[], window: TargetWindow | null, nominal: number, yieldValue: number): TopLevelSpec {
+  const inside = (b: HistogramBin): boolean => window !== null && b.x0 >= window.goal - window.halfWidth - 1e-9 * window.halfWidth && b.x1 <= window.goal + window.halfWidth + 1e-9 * window.halfWidth;
+  const bins = histogram(values, 30, window).map((b) => ({ ...b, where: inside(b) ? 'inside the window' : 'outside' }));
+  const xs = [...bins.flatMap((b) => [b.x0, b.x1]), ...(window ? [window.goal - window.halfWidth, window.goal + window.halfWidth] : []), ...(Number.isFinite(nominal) ? [nominal] : [])];
+  const span = Math.max(...xs) - Math.min(...xs);
+  const x = { type: 'quantitative' as const, title: `${label}${unit ? ` (${unit})` : ''}`, scale: { domain: [Math.min(...xs) - 0.04 * span, Math.max(...xs) + 0.04 * span], nice: false, zero: false } };
+  const layers: object[] = [];
+  if (window) layers.push({ data: { values: [{ a: window.goal - window.halfWidth, b: window.goal + window.halfWidth }] }, mark: { type: 'rect', color: PALETTE.straw, opacity: 0.45 }, encoding: { x: { ...x, field: 'a' }, x2: { field: 'b' } } });
+  layers.push({
+    data: { values: bins },
+    mark: { type: 'rect', stroke: 'white', strokeWidth: 0.5 },
+    encoding: {
+      x: { ...x, field: 'x0' }, x2: { field: 'x1' }, y: { field: 'count', type: 'quantitative', title: 'samples' },
+      color: { field: 'where', type: 'nominal', title: null, scale: { domain: ['inside the window', 'outside'], range: [PALETTE.indigo, '#a9a9a9'] }, legend: window ? { orient: 'top-right' } : null },
+    },
+  });
+  if (window) layers.push({ data: { values: [{ g: window.goal }] }, mark: { type: 'rule', color: PALETTE.sky, strokeWidth: 2, strokeDash: [5, 3] }, encoding: { x: { ...x, field: 'g' } } });
+  if (Number.isFinite(nominal)) layers.push({ data: { values: [{ n: nominal }] }, mark: { type: 'rule', color: PALETTE.ink, strokeWidth: 1.5 }, encoding: { x: { ...x, field: 'n' } } });
+  return {
+    $schema: 'https://vega.github.io/schema/vega-lite/v6.json',
+    title: { text: label, subtitle: `${yieldText(yieldValue)} · ${values.filter(Number.isFinite).length} samples${window ? ` · window ${sig(window.goal, 6)} ± ${sig(window.halfWidth, 4)} ${unit}` : ''}` },
+    width: 560,
+    height: 220,
+    layer: layers,
+  } as TopLevelSpec;
+}
+
+const signed = (x: number, digits: number): string => (Number.isFinite(x) ? `${x >= 0 ? '+' : ''}${x.toFixed(digits)}` : '–');
+
+/** The tolerance section of a report. */
+export async function toleranceSection(t: ToleranceReport, id = 'tolerance'): Promise<Section> {
+  const r = t.result;
+  const q = r.quantities;
+  if (r.status !== 'ok') return { id, title: 'Growth tolerance', lead: `status ${r.status}: ${r.message}`, html: '' };
+  const parts: string[] = [];
+  const sens = r.sensitivities;
+  const step = (kind: string): string => { const s = sens.find((x) => x.kind === kind); return s ? String(s.step) : '–'; };
+  parts.push('<h3>Sensitivities</h3>',
+    figureHtml(await renderSvg(sensitivitySpec(r)), `Impact of each growth error applied alone (±1 ML per layer, alloy fraction ±${step('composition')}, growth rate ±${step('growth-rate')} %, temperature ±${step('temperature')} K): the largest |Δ residual| over the targets in window half-widths; the dashed rule at 1 is half a window${sens.some((s) => !(s.impact >= MIN_IMPACT)) ? `; errors below ${MIN_IMPACT} (or that failed to solve) are only in the table` : ''}.`),
+    htmlTable(['growth error', ...q.map((x) => `Δ ${x.label} (${x.unit || '–'}) −/+`), 'impact'],
+      [...sens].sort((a, b) => (Number.isFinite(b.impact) ? b.impact : -1) - (Number.isFinite(a.impact) ? a.impact : -1))
+        .map((s) => [s.label, ...q.map((_, k) => `${signed(s.minus[k]!, 3)} / ${signed(s.plus[k]!, 3)}`), fixed(s.impact, 3)]),
+      [...q.map((_, k) => k + 1), q.length + 1]));
+  const mc = r.montecarlo;
+  if (mc) {
+    parts.push('<h3>Monte Carlo</h3>',
+      `<p class="lead">${mc.samples} samples, seed ${mc.seed}, composition σ ${mc.model.compositionSigma}, growth rate σ ${mc.model.rateSigmaPercent} %: <strong>${yieldText(mc.yield)}</strong> (every target inside its window)${mc.failures ? `; ${mc.failures} samples failed to solve (counted out)` : ''}.</p>`);
+    if (t.samples) {
+      for (const [k, quantity] of q.entries()) {
+        if (!quantity.target) continue;
+        const values = t.samples.map((s) => s.values[k]!);
+        parts.push(figureHtml(await renderSvg(histogramSpec(quantity.label, quantity.unit, values, t.windows[k] ?? null, r.nominal.values[k]!, mc.yield)),
+          `${quantity.label} over the samples (equal bins, edges on the window's); shaded: the target window, dashed: its goal, solid: the nominal design.`));
+      }
+    } else {
+      parts.push('<p class="lead">The recorded result keeps only the summary of its samples: run "wellsmith report SPEC --tolerance" for the histograms.</p>');
+    }
+    parts.push(htmlTable(['quantity', 'unit', 'nominal', 'mean', 'σ', 'p5', 'p50', 'p95'],
+      mc.distributions.map((d, k) => [q[k]!.label, q[k]!.unit || '–', sig(r.nominal.values[k]!, 6), sig(d.mean, 6), sig(d.sigma, 3), sig(d.p5, 6), sig(d.p50, 6), sig(d.p95, 6)]), [2, 3, 4, 5, 6, 7]));
+  }
+  for (const w of r.islands) {
+    parts.push(`<h3>Monolayer islands of layer ${w.layer + 1}${w.label ? ` (${escapeHtml(w.label)})` : ''}</h3>`,
+      htmlTable(['transition', 'w − 1 ML (eV)', 'w (eV)', 'w + 1 ML (eV)', 'split −1/0 (meV)', 'split 0/+1 (meV)', 'HWHM est. (meV)'],
+        w.lines.map((l) => [l.transition, ...l.energy_eV.map((e) => fixed(e, 5)), fixed(l.splitting_meV[0], 2), fixed(l.splitting_meV[1], 2), fixed(l.hwhm_meV, 2)]), [1, 2, 3, 4, 5, 6]));
+  }
+  if (r.islands.length > 0) parts.push(`<p class="lead">Lines of a well grown with interruptions, at ${r.islands.map((w) => `${fixed(w.monolayers, 2)} ML of ${fixed(w.monolayer_nm, 4)} nm`).join(', ')} ± 1 ML: islands wider than the exciton give three lines; smaller ones one line of about the HWHM estimate (half the mean 1 ML splitting).</p>`);
+  return {
+    id, title: 'Growth tolerance',
+    lead: `Design ${Object.entries(r.values).map(([k, v]) => `${k} = ${sig(v, 6)}`).join(', ') || '(no variables)'}; nominal: every target ${r.nominal.satisfied ? 'met' : 'NOT met'}.`,
+    html: parts.join('\n'),
+  };
+}

@@ -1,0 +1,163 @@
+/**
+ * The wire sections of a report: the cross-section's materials map, |ψ|² maps of the lowest
+ * states of each band (Vega-Lite rect heatmaps on the solver's map grid), the broadened 1-D
+ * density of states with its E^(−1/2) singularities at the subband edges, and the states and
+ * transitions tables. Lengths in nm, energies in eV on the absolute scale of the parameter set.
+ */
+import type { TopLevelSpec } from 'vega-lite';
+import { InputError } from '../errors.js';
+import { fixed, sig } from '../cli/format.js';
+import type { BandName } from '../profile.js';
+import { BANDS } from '../solve.js';
+import type { WireSolveResult } from '../wire/solve.js';
+import { figureHtml, htmlTable, type Section } from './html.js';
+import { BAND_COLOURS, BAND_NAMES, PALETTE } from './palette.js';
+import { renderSvg } from './render.js';
+import { MIN_OVERLAP2 } from './sections.js';
+
+/** States mapped per band (the tables list them all). */
+export const MAPPED_STATES = 2;
+/** Cells per axis kept in a map: finer than the eye resolves at the plotted size, and a small page. */
+const MAX_CELLS = 60;
+
+const isRecord = (v: unknown): v is Record<string, unknown> => typeof v === 'object' && v !== null && !Array.isArray(v);
+
+/** True for `wellsmith solve --json` output of a wire (with or without --maps). */
+export const isWireJson = (v: unknown): v is Record<string, unknown> =>
+  isRecord(v) && isRecord(v.structure) && Array.isArray(v.structure.primitives) && isRecord(v.bands);
+
+/** A wire result from `solve --json --maps` output; without the maps there is nothing to draw. */
+export function wireFromJson(v: Record<string, unknown>, origin: string): WireSolveResult {
+  if (!isRecord(v.maps) || !isRecord(v.dos) || !isRecord(v.dos.curves)) {
+    throw new InputError('schema', `${origin}: a wire result needs its |ψ|² maps and DOS curves; write it with "wellsmith solve SPEC --json --maps"`, 'maps');
+  }
+  return v as unknown as WireSolveResult;
+}
+
+interface Cell { readonly x: number; readonly x2: number; readonly y: number; readonly y2: number }
+
+/** The map grid's cells, strided to at most MAX_CELLS per axis, with the node index each stands for. */
+function cells(r: WireSolveResult): { readonly cell: Cell; readonly node: number }[] {
+  const g = r.maps.grid;
+  const stride = Math.max(1, Math.ceil(Math.max(g.nx, g.ny) / MAX_CELLS));
+  const out: { cell: Cell; node: number }[] = [];
+  for (let j = 0; j < g.ny; j += stride) {
+    for (let i = 0; i < g.nx; i += stride) {
+      const x = g.x0_nm + i * g.dx_nm;
+      const y = g.y0_nm + j * g.dy_nm;
+      out.push({ cell: { x: x - g.dx_nm / 2, x2: x + (stride - 0.5) * g.dx_nm, y: y - g.dy_nm / 2, y2: y + (stride - 0.5) * g.dy_nm }, node: j * g.nx + i });
+    }
+  }
+  return out;
+}
+
+const axes = (r: WireSolveResult) => {
+  const g = r.maps.grid;
+  const xd = [g.x0_nm - g.dx_nm / 2, g.x0_nm + (g.nx - 0.5) * g.dx_nm];
+  const yd = [g.y0_nm - g.dy_nm / 2, g.y0_nm + (g.ny - 0.5) * g.dy_nm];
+  return {
+    x: { field: 'x', type: 'quantitative' as const, title: 'x (nm)', scale: { domain: xd, nice: false, zero: false } },
+    x2: { field: 'x2' },
+    y: { field: 'y', type: 'quantitative' as const, title: 'z (nm, growth)', scale: { domain: yd, nice: false, zero: false } },
+    y2: { field: 'y2' },
+    size: (side: number) => ({ width: side, height: Math.round((side * (yd[1]! - yd[0]!)) / (xd[1]! - xd[0]!)) }),
+  };
+};
+
+/** Materials map of the cross-section: each cell coloured by the material at its node. */
+export function materialsMapSpec(r: WireSolveResult): TopLevelSpec {
+  const a = axes(r);
+  const names = r.structure.materials.map((m) => m.formula);
+  const rows = cells(r).map(({ cell, node }) => ({ ...cell, material: names[r.maps.grid.material[node]!] ?? '?' }));
+  const domain = [...new Set(names)];
+  return {
+    $schema: 'https://vega.github.io/schema/vega-lite/v6.json',
+    ...a.size(300),
+    data: { values: rows },
+    mark: { type: 'rect' },
+    encoding: { x: a.x, x2: a.x2, y: a.y, y2: a.y2, color: { field: 'material', type: 'nominal', title: 'material', scale: { domain, range: [PALETTE.straw, PALETTE.indigo, PALETTE.amber, PALETTE.rose, PALETTE.sky].slice(0, domain.length) } } },
+  } as TopLevelSpec;
+}
+
+/** |ψ|² maps (normalised to each state's peak) of the lowest MAPPED_STATES states of each band, one panel per state. */
+export function stateMapsSpec(r: WireSolveResult): TopLevelSpec {
+  const a = axes(r);
+  const grid = cells(r);
+  const rows = BANDS.flatMap((b) => r.bands[b].states.slice(0, MAPPED_STATES).flatMap((s, k) => {
+    const psi2 = r.maps.psi2[b][k];
+    if (!psi2) return [];
+    let peak = 0;
+    for (let n = 0; n < psi2.length; n++) peak = Math.max(peak, psi2[n]!);
+    return peak > 0 ? grid.map(({ cell, node }) => ({ ...cell, p: psi2[node]! / peak, state: `${s.label} (${fixed(s.energy_eV, 4)} eV)` })) : [];
+  }));
+  return {
+    $schema: 'https://vega.github.io/schema/vega-lite/v6.json',
+    data: { values: rows },
+    facet: { field: 'state', type: 'nominal', title: null, sort: null },
+    columns: 3,
+    spec: {
+      ...a.size(230),
+      mark: { type: 'rect' },
+      encoding: { x: a.x, x2: a.x2, y: a.y, y2: a.y2, color: { field: 'p', type: 'quantitative', title: '|ψ|² / max', scale: { domain: [0, 1], range: ['#ffffff', PALETTE.indigo], interpolate: 'rgb' } } },
+    },
+  } as TopLevelSpec;
+}
+
+/**
+ * Broadened 1-D DOS per band, g1 = Σ √(2m)/(πħ) (E − Eₙ)^(−1/2) with the result's Lorentzian
+ * broadening, versus the energy into the band from its extremum (meV), with the subband edges
+ * (the singularities) as dashed rules.
+ */
+export function wireDosSpec(r: WireSolveResult): TopLevelSpec {
+  const sign = (b: BandName): number => (b === 'electron' ? 1 : -1);
+  const curve = BANDS.flatMap((b) => {
+    const c = r.dos.curves[b];
+    return c.energies_eV.map((e, k) => ({ e_meV: sign(b) * (e - r.bands[b].edge_eV) * 1000, g: c.states_per_cm_per_eV[k]! / 1e6, band: BAND_NAMES[b] }));
+  });
+  const edges = BANDS.flatMap((b) => r.dos.bands[b].map((d) => ({ e_meV: sign(b) * (d.edge_eV - r.bands[b].edge_eV) * 1000, band: BAND_NAMES[b], label: d.label })));
+  const colour = { field: 'band', type: 'nominal' as const, legend: null, scale: { domain: BANDS.map((b) => BAND_NAMES[b]), range: BANDS.map((b) => BAND_COLOURS[b]) } };
+  const x = { field: 'e_meV', type: 'quantitative' as const, title: 'energy from band extremum (meV)' };
+  return {
+    $schema: 'https://vega.github.io/schema/vega-lite/v6.json',
+    facet: { column: { field: 'band', type: 'nominal', title: null, sort: BANDS.map((b) => BAND_NAMES[b]) } },
+    data: { values: [...curve.map((p) => ({ ...p, kind: 'curve' })), ...edges.map((p) => ({ ...p, kind: 'edge' }))] },
+    spec: {
+      width: 210, height: 200,
+      layer: [
+        { transform: [{ filter: "datum.kind === 'curve'" }], mark: { type: 'line', strokeWidth: 1.6 }, encoding: { x, y: { field: 'g', type: 'quantitative', title: 'DOS (10⁶ cm⁻¹ eV⁻¹)' }, color: colour } },
+        { transform: [{ filter: "datum.kind === 'edge'" }], mark: { type: 'rule', strokeDash: [4, 3], opacity: 0.6 }, encoding: { x, color: colour } },
+      ],
+    },
+    resolve: { scale: { x: 'independent', y: 'independent' } },
+  } as TopLevelSpec;
+}
+
+/** The sections of a wire report. */
+export async function wireSections(r: WireSolveResult): Promise<Section[]> {
+  const s = r.structure;
+  const dims = Object.entries(s.dimensions).map(([k, v]) => `${k.replace(/^wire\.shape\./, '')} ${fixed(v, 2)} nm`).join(', ');
+  const states = BANDS.flatMap((b) => r.bands[b].states.map((x) => [BAND_NAMES[b], x.label, fixed(x.energy_eV, 5), fixed(x.confinement_meV, 2), fixed(x.mass_axis, 4)]));
+  return [
+    {
+      id: 'cross-section', title: 'Cross-section',
+      lead: `${s.shape} wire${dims ? ` (${dims})` : ''} · T = ${s.temperature_K} K · substrate ${s.substrate ?? 'none'} · parameters ${r.parameterSet}; x across the wire, z along growth, the wire axis out of the page.`,
+      html: figureHtml(await renderSvg(materialsMapSpec(r)), 'Material at each node of the map grid (x and z in nm).'),
+    },
+    {
+      id: 'maps', title: '|ψ|² of the lowest states',
+      lead: r.status === 'ok' ? `The lowest ${MAPPED_STATES} subbands of each band, each normalised to its peak.` : `status ${r.status}: ${r.message}`,
+      html: figureHtml(await renderSvg(stateMapsSpec(r)), '|ψ|² / max|ψ|² over the cross-section (x and z in nm); subband edge energies in the panel titles.'),
+    },
+    { id: 'states', title: 'Subbands', html: htmlTable(['band', 'state', 'edge (eV)', 'confinement (meV)', 'm along axis (m0)'], states, [2, 3, 4]) },
+    {
+      id: 'transitions', title: 'Transitions',
+      lead: `Interband transitions with envelope overlap² ≥ ${MIN_OVERLAP2} and every intersubband one${r.transitions.some((t) => t.kind === 'interband' && !(t.overlap2 >= MIN_OVERLAP2)) ? ' (weaker pairs left out; "wellsmith solve --json" lists all)' : ''}.`,
+      html: htmlTable(['transition', 'kind', 'energy (eV)', 'wavelength (nm)', 'overlap²'], r.transitions.filter((t) => t.kind !== 'interband' || t.overlap2 >= MIN_OVERLAP2).map((t) => [t.label, t.kind, fixed(t.energy_eV, 5), fixed(t.wavelength_nm, 2), fixed(t.overlap2, 4)]), [2, 3, 4]),
+    },
+    {
+      id: 'dos', title: 'Density of states',
+      lead: `One-dimensional g1 = Σ √(2mₙ)/(πħ) (E − Eₙ)^(−1/2) per band (spin included), Lorentzian-broadened by ${sig(r.dos.broadening_eV * 1000, 3)} meV; dashed: the subband edges, where g1 diverges.`,
+      html: figureHtml(await renderSvg(wireDosSpec(r)), 'DOS (10⁶ cm⁻¹ eV⁻¹) versus energy into each band from its extremum in the cross-section (meV).'),
+    },
+  ];
+}
