@@ -5,7 +5,7 @@
  * line densities cm⁻¹.
  */
 import { HBAR2_OVER_2M0, KB_EV_PER_K } from '../constants.js';
-import { InputError } from '../errors.js';
+import { failBadValue } from '../errors.js';
 import { stepHeight2d } from './dos.js';
 import type { Subband } from './dos.js';
 import { logFermiDirac, rootOfIncreasing } from './fermi.js';
@@ -15,9 +15,7 @@ export type { Subband } from './dos.js';
 
 const NM_PER_CM = 1e7;
 
-const fail = (where: string, what: string, got: unknown, todo: string): never => {
-  throw new InputError('bad-value', `${where}: ${what}, got ${String(got)}; ${todo}`);
-};
+const fail = failBadValue;
 
 const checkCommon = (subbands: readonly Subband[], temperature: number, where: string): void => {
   if (subbands.length === 0) fail(`${where}.subbands`, 'needs at least one subband', 'an empty list', 'pass the bound states of the band');

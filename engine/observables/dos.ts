@@ -3,7 +3,7 @@
  * optional broadening in closed form. Energies eV, masses m0; results per eV per cm², cm or cm³.
  */
 import { HBAR2_OVER_2M0 } from '../constants.js';
-import { InputError } from '../errors.js';
+import { failBadValue } from '../errors.js';
 
 /** One subband: its edge and the mass that sets its dispersion. */
 export interface Subband {
@@ -26,9 +26,7 @@ const NM2_PER_CM2 = 1e14;
 const NM_PER_CM = 1e7;
 const NM3_PER_CM3 = 1e21;
 
-const fail = (where: string, what: string, got: unknown, todo: string): never => {
-  throw new InputError('bad-value', `${where}: ${what}, got ${String(got)}; ${todo}`);
-};
+const fail = failBadValue;
 
 const checkSubbands = (subbands: readonly Subband[], where: string): void => {
   subbands.forEach((s, i) => {

@@ -3,7 +3,7 @@
  * the electron–hole pair is a hydrogen atom in a space of non-integer dimension α (2 < α ≤ 3).
  * Energies eV, lengths nm, masses m0, ε_r dimensionless.
  */
-import { InputError } from '../errors.js';
+import { failBadValue } from '../errors.js';
 
 /** Rydberg energy R∞hc in eV (CODATA 2018). */
 const RYDBERG_EV = 13.605693122994;
@@ -11,9 +11,7 @@ const RYDBERG_EV = 13.605693122994;
 /** Bohr radius in nm (CODATA 2018). */
 const BOHR_RADIUS_NM = 0.0529177210903;
 
-const fail = (where: string, what: string, got: unknown, todo: string): never => {
-  throw new InputError('bad-value', `${where}: ${what}, got ${String(got)}; ${todo}`);
-};
+const fail = failBadValue;
 
 const checkMaterial = (mu: number, eps: number, where: string): void => {
   if (!(mu > 0) || !Number.isFinite(mu)) fail(`${where}.reducedMass`, 'must be positive and finite (m0)', mu, 'pass μ = m_e m_h/(m_e + m_h) in units of m0');

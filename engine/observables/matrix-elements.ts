@@ -4,11 +4,9 @@
  * Lengths nm, wavefunctions nm^(−1/2) normalised to ∫ψ² dz = 1 by the caller, energies eV, masses m0.
  */
 import { HBAR2_OVER_2M0 } from '../constants.js';
-import { InputError } from '../errors.js';
+import { failBadValue } from '../errors.js';
 
-const fail = (where: string, what: string, got: unknown, todo: string): never => {
-  throw new InputError('bad-value', `${where}: ${what}, got ${String(got)}; ${todo}`);
-};
+const fail = failBadValue;
 
 const checkGrid = (z: ArrayLike<number>, where: string): void => {
   if (z.length < 3) fail(`${where}.z`, 'needs at least 3 grid points', z.length, 'sample the wavefunctions on a finer grid');

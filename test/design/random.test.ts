@@ -33,7 +33,7 @@ describe('murmur3Words', () => {
 });
 
 describe('Random (xoshiro128**)', () => {
-  // Outputs of a python transcription of Blackman & Vigna's published C code, seeded the
+  // Outputs of a python port of Blackman & Vigna's published C code, seeded the
   // documented way (test/reference/neldermead/generate.py).
   it.each(fixtures.xoshiro128starstar)('matches the reference stream for seed $seed', ({ seed, uint32 }) => {
     const rng = new Random(seed);
