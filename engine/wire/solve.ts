@@ -10,6 +10,7 @@ import { HC_EV_NM, wavenumberPerCm } from '../constants.js';
 import { InputError } from '../errors.js';
 import type { BandName } from '../profile.js';
 import type { Spec } from '../spec/schema.js';
+import type { TransitionResult } from '../solve.js';
 import { nominalVariables, PARAMETER_SET } from '../structure.js';
 import { sampleCrossSection, solveCrossSectionConverged, type CrossSectionBox, type CrossSectionMaterial } from '../solver2d.js';
 import { dos1d } from '../observables/dos.js';
@@ -46,15 +47,11 @@ export interface WireBandResult {
   readonly converged: boolean;
 }
 
-export interface WireTransition {
-  readonly label: string;
-  readonly kind: 'interband' | 'intersubband';
-  readonly energy_eV: number;
-  readonly wavelength_nm: number;
-  readonly wavenumber_per_cm: number;
-  /** |∫ψ_i ψ_j dx dy|²; for a degenerate level only the sum over its partners is basis-independent. */
-  readonly overlap2: number;
-}
+/**
+ * An interband transition of a wire: the well's transition shape without the intersubband fields.
+ * overlap2 is |∫ψ_i ψ_j dx dy|²; for a degenerate level only the sum over its partners is basis-independent.
+ */
+export type WireTransition = Omit<TransitionResult, 'dipole_nm' | 'oscillator_strength'>;
 
 export interface WireDosSubband {
   readonly label: string;
