@@ -8,7 +8,8 @@ import { buildBandProfile, isPiecewiseConstant, type BandName, type BandProfile 
 import { solveBand, solveBandExtrapolated, wavefunction, type BandSolution } from './solver1d.js';
 import { buildStructure, nominalVariables, PARAMETER_SET, type Structure } from './structure.js';
 import type { Spec } from './spec/schema.js';
-import { parseLength } from './spec/units.js';
+import { parseLength, parseSheetDensity } from './spec/units.js';
+import { quasiFermiLevels } from './observables/carriers.js';
 import { InputError } from './errors.js';
 import { dipoleNm, oscillatorStrength, overlap2 } from './observables/matrix-elements.js';
 import { stepHeight2d } from './observables/dos.js';
@@ -74,6 +75,19 @@ export interface DosStep {
   readonly step_per_cm2_per_eV: number;
 }
 
+/** Quasi-Fermi levels of an injected, charge-neutral sheet population in the bound subbands. */
+export interface CarrierResult {
+  readonly sheet_density_cm2: number;
+  readonly temperature_K: number;
+  /** Absolute energy scale (eV). */
+  readonly electron_quasi_fermi_eV: number;
+  readonly hole_quasi_fermi_eV: number;
+  readonly separation_eV: number;
+  /** Separation above the e1-hh1 (or e1-lh1 when lh1 is on top) energy: the Bernard–Duraffourg condition for gain. */
+  readonly inversion: boolean;
+  readonly note: string;
+}
+
 export interface SolveResult {
   readonly status: 'ok' | 'no-bound-state';
   readonly message: string;
@@ -83,6 +97,8 @@ export interface SolveResult {
   readonly bands: Readonly<Record<BandName, BandResult>>;
   readonly transitions: readonly TransitionResult[];
   readonly dos: { readonly dimension: 2; readonly unit: string; readonly bands: Readonly<Record<BandName, readonly DosStep[]>> };
+  /** Present when the spec gives carriers.sheet_density. */
+  readonly carriers?: CarrierResult;
   /** Wavefunctions on a uniform z grid (nm; z = 0 at the first layer's start), per band per state. */
   readonly wavefunctions: { readonly z_nm: Float64Array; readonly psi: Readonly<Record<BandName, readonly Float64Array[]>> };
 }
@@ -239,7 +255,40 @@ export function solveStructure(structure: Structure, settings: SolverSettings = 
  */
 export function solve(spec: Spec, values: Readonly<Record<string, number>> = nominalVariables(spec)): SolveResult {
   if (spec.wire !== undefined) throw new InputError('bad-value', 'wire: this spec describes a wire cross-section; solve it with solveWire (the CLI does so)', 'wire');
-  return solveStructure(buildStructure(spec, values), settingsOf(spec));
+  const result = solveStructure(buildStructure(spec, values), settingsOf(spec));
+  if (spec.carriers === undefined) return result;
+  const n = parseSheetDensity(spec.carriers.sheet_density);
+  if (typeof n === 'string') throw new InputError('bad-value', `carriers.sheet_density: ${n}`, 'carriers.sheet_density');
+  const carriers = carriersOf(result, n);
+  return carriers ? { ...result, carriers } : result;
+}
+
+/**
+ * Quasi-Fermi levels for n = p injected per unit area, each carrier in equilibrium among its own
+ * bound subbands (common practice for lasers under injection), with the probability-weighted
+ * in-plane masses. Undefined when electrons or holes have no bound subband or T = 0.
+ */
+export function carriersOf(r: SolveResult, sheetDensity_cm2: number): CarrierResult | undefined {
+  const T = r.structure.temperature_K;
+  const holes = [...r.bands.heavy_hole.states, ...r.bands.light_hole.states];
+  if (r.bands.electron.states.length === 0 || holes.length === 0 || !(T > 0)) return undefined;
+  const q = quasiFermiLevels({
+    electronSubbands: r.bands.electron.states.map((s) => ({ energy: s.energy_eV, mass: s.mass_inplane })),
+    holeSubbands: holes.map((s) => ({ energy: -s.energy_eV, mass: s.mass_inplane })),
+    sheetDensity_cm2,
+    temperature_K: T,
+  });
+  const e1 = r.bands.electron.states[0]!.energy_eV;
+  const topHole = Math.max(...holes.map((s) => s.energy_eV));
+  return {
+    sheet_density_cm2: sheetDensity_cm2,
+    temperature_K: T,
+    electron_quasi_fermi_eV: q.electron_eV,
+    hole_quasi_fermi_eV: q.hole_eV,
+    separation_eV: q.separation_eV,
+    inversion: q.separation_eV > e1 - topHole,
+    note: 'bound subbands only: at densities that fill states near the barrier edge the continuum also holds carriers',
+  };
 }
 
 /**

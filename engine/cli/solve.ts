@@ -48,6 +48,10 @@ export function describeSolve(r: SolveResult): string {
   if (isb.length > 0) out.push('Intersubband transitions from e1 (all pairs in --json)', table(['transition', 'energy meV', 'wavelength µm', 'wavenumber cm⁻¹', 'dipole nm', 'osc. strength'], isb.map((t) => [t.label, fixed(t.energy_eV * 1000, 2), fixed(t.wavelength_nm / 1000, 3), fixed(t.wavenumber_per_cm, 1), fixed(t.dipole_nm, 4), fixed(t.oscillator_strength, 4)])), '');
   const dosRows = BANDS.flatMap((b) => r.dos.bands[b].map((d) => [d.label, fixed(d.edge_eV, 5), fixed(d.mass_inplane, 4), sig(d.step_per_cm2_per_eV, 4)]));
   out.push(`2-D density of states: one step per subband (${r.dos.unit})`, table(['subband', 'edge eV', 'm∥ m0', 'step cm⁻² eV⁻¹'], dosRows));
+  if (r.carriers) {
+    const c = r.carriers;
+    out.push('', `Injected carriers n = p = ${sig(c.sheet_density_cm2, 3)} cm⁻² at ${c.temperature_K} K: quasi-Fermi levels ${fixed(c.electron_quasi_fermi_eV, 4)} eV (electrons), ${fixed(c.hole_quasi_fermi_eV, 4)} eV (holes), separation ${fixed(c.separation_eV, 4)} eV — ${c.inversion ? 'above' : 'below'} the band-edge transition (${c.inversion ? 'gain possible' : 'no inversion'}); ${c.note}`);
+  }
   if (r.status !== 'ok') out.push('', `status: ${r.status}: ${r.message}`);
   return out.join('\n');
 }

@@ -70,6 +70,12 @@ export const growthSchema = z
   .strict()
   .describe('Growth rates for the shutter times of the growth sheet (wellsmith report)');
 
+export const carriersSchema = z
+  .object({
+    sheet_density: z.union([z.number(), z.string()]).describe('Injected electron and hole sheet density (n = p), e.g. "2e12 cm-2"; solve reports the quasi-Fermi levels'),
+  })
+  .strict();
+
 export const specSchema = z
   .object({
     title: z.string().optional(),
@@ -82,6 +88,7 @@ export const specSchema = z
     stack: z.array(layerSchema).min(1).default([]).describe('Layers from the substrate upwards; omit it when the spec describes a wire'),
     wire: wireSchema.optional(),
     solver: solverSchema.optional(),
+    carriers: carriersSchema.optional(),
     growth: growthSchema.optional(),
     targets: z.array(z.record(z.string(), z.unknown())).optional(),
   })

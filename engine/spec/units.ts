@@ -76,3 +76,11 @@ export function parseEnergy(input: string | number): number | string {
   if (q.unit === 'meV') return q.value / 1000;
   return `unknown energy unit "${q.unit}" in ${JSON.stringify(input)}; use eV or meV`;
 }
+
+/** A sheet density in cm⁻² ("2e12 cm-2", "2e12 /cm2"; a bare number is cm⁻²). */
+export function parseSheetDensity(input: string | number): number | string {
+  const q = splitQuantity(input);
+  if (!q || !(q.value > 0)) return `expected a positive sheet density such as "2e12 cm-2", got ${JSON.stringify(input)}`;
+  if (/^(|cm-2|cm\^-2|cm⁻²|\/cm2|\/cm\^2)$/.test(q.unit)) return q.value;
+  return `unknown sheet-density unit "${q.unit}" in ${JSON.stringify(input)}; use cm-2`;
+}
