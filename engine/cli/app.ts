@@ -61,7 +61,7 @@ export async function cli(argv: string[]): Promise<Outcome> {
       outcome = await runTolerance({ spec: a.spec!, samples: a.samples, seed: a.seed, workers: a.workers, dx: a.dx, rate: a.rate, dT: a.dT,
         mlTable: a.ml, mlSigma: a['ml-sigma'], xSigma: a['x-sigma'], rateSigma: a['rate-sigma'], json: a.json });
     })
-    .command('report <input>', 'self-contained HTML report of a spec, or of solve --json / design --json output', (y) =>
+    .command('report <input>', 'self-contained HTML report of a spec, a design, a solve/design/tolerance --json file or a campaign run folder', (y) =>
       y.positional('input', { type: 'string', demandOption: true, describe: 'spec file (solved, targets scored) or a JSON file from solve/design --json' })
         .option('out', { type: 'string', describe: 'HTML file to write (default: INPUT with .html)' })
         .option('growth-sheet', { type: 'string', describe: 'also write the growth sheet (per-layer shutter times) as CSV; needs growth.rates in the spec' })

@@ -28,6 +28,7 @@ function exitOf(input: ReportInput): number {
     case 'design': return input.status !== 'no-finite-value' ? EXIT.ok : EXIT.physics;
     case 'tolerance': return input.report.result.status === 'ok' ? EXIT.ok : EXIT.physics;
     case 'wire': return input.result.status === 'ok' ? EXIT.ok : EXIT.physics;
+    case 'campaign': return input.report.jobs.some((j) => j.state === 'done') ? EXIT.ok : EXIT.physics;
   }
 }
 
@@ -45,8 +46,8 @@ async function withTolerance(input: ReportInput, args: ReportArgs): Promise<Repo
   return { ...input, tolerance: await toleranceReport(spec, nominalVariables(spec), { ...DEFAULT_TOLERANCE, samples: args.samples, workers: args.workers }) };
 }
 
-/** Default output: INPUT with its extension replaced by .html, beside it. */
-export const defaultReportPath = (input: string): string => join(dirname(input), `${basename(input, extname(input))}.html`);
+/** Default output: INPUT with its extension replaced by .html, beside it (a run folder RUN gives RUN.html beside the folder). */
+export const defaultReportPath = (input: string): string => { const trimmed = input.replace(/[\\/]+$/, ''); return join(dirname(trimmed), `${basename(trimmed, extname(trimmed))}.html`); };
 
 export async function runReport(args: ReportArgs): Promise<Outcome> {
   try {

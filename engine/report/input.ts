@@ -3,7 +3,8 @@
  * values, targets scored, growth sheet from its `growth` section), or the JSON written by
  * `wellsmith solve --json` or `wellsmith design --json` (re-solved from the recorded structure and
  * solver settings, which reproduces the recorded energies exactly and restores the wavefunctions
- * that --json leaves out), or the JSON of `wellsmith tolerance --json` (its summary only).
+ * that --json leaves out), or the JSON of `wellsmith tolerance --json` (its summary only), or a
+ * campaign's run store (engine/report/campaign.ts).
  */
 import { readFileSync } from 'node:fs';
 import { InputError } from '../errors.js';
@@ -17,6 +18,7 @@ import { growthSheet, type GrowthSheet } from './growth.js';
 import { isWireJson, wireFromJson } from './wire.js';
 import { solveWire, type WireSolveResult } from '../wire/solve.js';
 import { isToleranceJson, toleranceFromJson, type ToleranceReport } from './tolerance.js';
+import { isRunStorePath, readCampaign, reviveNumbers, type CampaignReport } from './campaign.js';
 
 /** One ranked design as `design --json` records it. */
 export interface RankedDesign {
@@ -32,10 +34,9 @@ export type ReportInput =
   | { readonly kind: 'solve'; readonly origin: string; readonly result: SolveResult; readonly scored: Scored | null; readonly growth: GrowthSheet | null; readonly tolerance?: ToleranceReport }
   | { readonly kind: 'tolerance'; readonly origin: string; readonly report: ToleranceReport }
   | { readonly kind: 'wire'; readonly origin: string; readonly result: WireSolveResult }
+  | { readonly kind: 'campaign'; readonly origin: string; readonly report: CampaignReport }
   | { readonly kind: 'design'; readonly origin: string; readonly status: string; readonly message: string; readonly seed: number; readonly starts: number; readonly designs: readonly RankedDesign[]; readonly best: SolveResult };
 
-/** JSON as written by format.ts toJson: non-finite numbers were stored as strings. */
-const reviveNumbers = (_k: string, v: unknown): unknown => (v === 'Infinity' ? Infinity : v === '-Infinity' ? -Infinity : v === 'NaN' ? NaN : v);
 
 const isRecord = (v: unknown): v is Record<string, unknown> => typeof v === 'object' && v !== null && !Array.isArray(v);
 
@@ -90,8 +91,9 @@ export function inputFromText(text: string, origin: string): ReportInput {
   return inputFromSpec(parseSpecText(text, origin));
 }
 
-/** Reads a report input file (spec, solve --json or design --json). */
+/** Reads a report input: a run folder or its campaign.sqlite (read only), or a file (spec, solve/design/tolerance --json). */
 export function loadReportInput(path: string): ReportInput {
+  if (isRunStorePath(path)) return { kind: 'campaign', origin: path, report: readCampaign(path) };
   let text: string;
   try {
     text = readFileSync(path, 'utf8');

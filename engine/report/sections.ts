@@ -14,6 +14,7 @@ import type { GrowthSheet } from './growth.js';
 import type { ReportInput } from './input.js';
 import { toleranceSection } from './tolerance.js';
 import { wireSections } from './wire.js';
+import { campaignSections } from './campaign.js';
 
 /** The band diagram with states as standalone SVG (also what `solve --plot` writes). */
 export const bandDiagramSvg = (r: SolveResult): Promise<string> => renderSvg(bandDiagramSpec(r));
@@ -116,6 +117,7 @@ export const SECTION_BUILDERS: { readonly [K in ReportInput['kind']]: Builder<K>
   ],
   tolerance: async (input) => [await toleranceSection(input.report)],
   wire: (input) => wireSections(input.result),
+  campaign: (input) => campaignSections(input.report),
   design: async (input) => {
     const first = input.designs[0]!;
     const header = ['rank', ...first.variables.map((v) => (v.kind === 'fraction' ? v.name : `${v.name} (nm / ML)`)), ...first.targets.map((e) => e.label), 'loss', 'all met', 'h_c margin'];
@@ -139,5 +141,6 @@ export function sectionsOf(input: ReportInput): Promise<readonly Section[]> {
     case 'design': return SECTION_BUILDERS.design(input);
     case 'tolerance': return SECTION_BUILDERS.tolerance(input);
     case 'wire': return SECTION_BUILDERS.wire(input);
+    case 'campaign': return SECTION_BUILDERS.campaign(input);
   }
 }

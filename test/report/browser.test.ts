@@ -4,11 +4,12 @@ import { tmpdir } from 'node:os';
 import { join, resolve } from 'node:path';
 import { pathToFileURL } from 'node:url';
 import { chromium } from 'playwright-core';
-import { buildReport, inputFromText, toleranceReport, type ReportInput } from '../../engine/report/index.js';
+import { buildReport, inputFromText, loadReportInput, toleranceReport, type ReportInput } from '../../engine/report/index.js';
 import { parseSpecText } from '../../engine/spec/load.js';
 import { nominalVariables } from '../../engine/structure.js';
 import { DEFAULT_TOLERANCE } from '../../engine/tolerance/analyse.js';
 import { WELL_SPEC } from './well-spec.js';
+import { referenceRun, tempDir, tinyCampaign } from '../campaign/helpers.js';
 
 const CHROMIUM = '/usr/bin/chromium';
 // A small, coarse rectangular GaAs wire in Al0.3Ga0.7As: fast to solve.
@@ -63,8 +64,12 @@ describe('report in a browser', () => {
     writeFileSync(tol, await buildReport({ ...inputFromText(WELL_SPEC, 'well.yaml'), tolerance } as ReportInput));
     const wire = join(ARTIFACTS, 'report-wire.html');
     writeFileSync(wire, await buildReport(inputFromText(WIRE_SPEC, 'wire.yaml')));
+    const runDir = tempDir('browser-campaign');
+    await referenceRun(tinyCampaign(runDir), join(runDir, 'tiny.run'));
+    const campaign = join(ARTIFACTS, 'report-campaign.html');
+    writeFileSync(campaign, await buildReport(loadReportInput(join(runDir, 'tiny.run'))));
     // Band diagram and DOS; with the tolerance section also the sensitivity bars and one histogram;
-    // a wire: materials map, |ψ|² maps and 1-D DOS.
-    await checkPages([{ file: well, plots: 2 }, { file: tol, plots: 4 }, { file: wire, plots: 3 }]);
+    // a wire: materials map, |ψ|² maps and 1-D DOS; a campaign: achieved versus swept goal.
+    await checkPages([{ file: well, plots: 2 }, { file: tol, plots: 4 }, { file: wire, plots: 3 }, { file: campaign, plots: 1 }]);
   }, 60_000);
 });
