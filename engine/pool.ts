@@ -1,7 +1,11 @@
 /**
  * The worker pool (piscina). It owns the queue and shutdown; results come back in task order
- * whatever the completion order, so nothing downstream depends on scheduling. One worker runs
- * the tasks in this thread: no start-up cost and the same results.
+ * whatever the completion order, so nothing downstream depends on scheduling. This thread is one
+ * of the W workers: it takes tasks from the same queue as W − 1 pool threads, so it works while
+ * they start up (loading the engine costs a thread ~0.1–0.3 s), and W = 1 needs no thread at all.
+ * When this thread runs out of new tasks it also runs tasks still waiting in a thread that has not
+ * started yet; the first result to arrive is kept. Every task is deterministic, so which lane runs
+ * it never changes a result.
  */
 import { availableParallelism } from 'node:os';
 import { Piscina } from 'piscina';
@@ -26,29 +30,53 @@ export interface PoolOptions {
 
 export async function runTasks(tasks: readonly WorkerTask[], options: PoolOptions): Promise<WorkerResult[]> {
   const out: WorkerResult[] = new Array(tasks.length);
+  const state = new Uint8Array(tasks.length); // 0 waiting, 1 sent to a thread, 2 done
   let done = 0;
+  let next = 0;
+  const take = (): number => (next < tasks.length ? next++ : -1);
+  let settle: (error?: unknown) => void = () => undefined;
+  const finished = new Promise<void>((resolve, reject) => { settle = (error) => (error === undefined ? resolve() : reject(error)); });
   const finish = (i: number, r: WorkerResult): void => {
+    if (state[i] === 2) return;
+    state[i] = 2;
     out[i] = r;
     done++;
     options.onProgress?.(done, tasks.length, r);
+    if (done === tasks.length) settle();
   };
-  if (options.workers <= 1 || tasks.length <= 1) {
-    for (const [i, t] of tasks.entries()) {
-      finish(i, unwrap(work(t)));
-      // Let timers (progress display, signals) run between tasks.
+  const here = async (): Promise<void> => {
+    for (;;) {
+      let i = take();
+      if (i < 0) i = state.indexOf(1);
+      if (i < 0) return;
+      finish(i, unwrap(work(tasks[i]!)));
+      // Let pool results, timers (progress display) and signals in between tasks.
       await new Promise((resolve) => setImmediate(resolve));
     }
+  };
+  const threads = Math.min(options.workers, tasks.length) - 1;
+  if (threads <= 0) {
+    await here();
     return out;
   }
   const pool = new Piscina<WorkerTask, WorkerResponse>({
     filename: new URL(isTs ? './worker.ts' : './worker.js', import.meta.url).href,
     execArgv: isTs ? ['--import', import.meta.resolve('tsx')] : [],
-    minThreads: Math.min(options.workers, tasks.length),
-    maxThreads: Math.min(options.workers, tasks.length),
+    minThreads: threads,
+    maxThreads: threads,
     idleTimeout: 1000,
   });
+  const lane = async (): Promise<void> => {
+    for (let i = take(); i >= 0 && done < tasks.length; i = take()) {
+      state[i] = 1;
+      const response = await pool.run(tasks[i]!).catch((e: unknown) => (state[i] === 2 ? null : Promise.reject(e)));
+      if (response) finish(i, unwrap(response));
+    }
+  };
   try {
-    await Promise.all(tasks.map(async (t, i) => finish(i, unwrap(await pool.run(t)))));
+    here().catch(settle);
+    for (let k = 0; k < threads; k++) lane().catch(settle);
+    if (tasks.length > 0) await finished;
   } finally {
     await pool.destroy();
   }
