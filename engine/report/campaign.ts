@@ -86,7 +86,7 @@ function jobOf(row: JobRow, best: { loss: number; satisfied: number; result_json
  * file is refused by RunStore.open with its own message (InputError, exit 2).
  */
 export function readCampaign(path: string): CampaignReport {
-  const store = RunStore.open(path, { create: false });
+  const store = RunStore.open(path, { create: false, readonly: true });
   try {
     const best = new Map(store.designs().filter((d) => d.rank === 1).map((d) => [d.job, d]));
     const rows = store.jobs() as JobRow[];

@@ -100,12 +100,14 @@ export class RunStore {
   private constructor(readonly path: string, private readonly db: Database.Database) {}
 
   /** Opens (or creates) the store of a run folder. `create: false` requires it to exist. */
-  static open(dir: string, { create = true } = {}): RunStore {
+  /** Opens (or creates) a run store; `readonly` opens an existing one without ever writing to it (reports). */
+  static open(dir: string, { create = true, readonly = false } = {}): RunStore {
     const path = dir.endsWith('.sqlite') ? dir : join(dir, STORE_FILE);
     const exists = existsSync(path);
     if (exists) checkExisting(path);
-    else if (!create) throw new InputError('io', `no run store at "${path}"; give the --out folder of a campaign run`);
+    else if (!create || readonly) throw new InputError('io', `no run store at "${path}"; give the --out folder of a campaign run`);
     else mkdirSync(dirname(path), { recursive: true });
+    if (readonly) return new RunStore(path, new Database(path, { readonly: true, fileMustExist: true }));
     const db = new Database(path);
     db.pragma('journal_mode = WAL');
     db.pragma('synchronous = FULL');
