@@ -81,46 +81,60 @@ function seeded(seed: number): () => number {
 }
 
 /**
- * The lowest Dirichlet-box modes
- * sin(pπ(i+1)/(nx+1)) sin(qπ(j+1)/(ny+1)) ordered by p²/Lx² + q²/Ly².
+ * Mode numbers (p, q) of the lowest Dirichlet-box modes
+ * sin(pπ(i+1)/(nx+1)) sin(qπ(j+1)/(ny+1)), ordered by p²/Lx² + q²/Ly².
  */
-function boxModes(grid: CrossSectionGrid, size: number): Float64Array[] {
+function boxModes(grid: CrossSectionGrid, size: number): [number, number][] {
   const { nx, ny } = grid;
   const lx = (nx + 1) * grid.dx_nm;
   const ly = (ny + 1) * grid.dy_nm;
   const modes: [number, number][] = [];
   for (let q = 1; q <= Math.min(ny, size); q++) for (let p = 1; p <= Math.min(nx, size); p++) modes.push([p, q]);
   modes.sort((a, b) => a[0] ** 2 / lx ** 2 + a[1] ** 2 / ly ** 2 - (b[0] ** 2 / lx ** 2 + b[1] ** 2 / ly ** 2));
-  return modes.slice(0, size).map(([p, q]) => {
-    const v = new Float64Array(nx * ny);
-    for (let j = 0; j < ny; j++) {
-      const sy = Math.sin((q * Math.PI * (j + 1)) / (ny + 1));
-      for (let i = 0; i < nx; i++) v[i + nx * j] = Math.sin((p * Math.PI * (i + 1)) / (nx + 1)) * sy;
-    }
-    return v;
-  });
+  return modes.slice(0, size);
 }
+
+/** sin(mode·π(i+1)/(count+1)) for i = 0 … count − 1. */
+const sines = (count: number, mode: number): Float64Array =>
+  Float64Array.from({ length: count }, (_, i) => Math.sin((mode * Math.PI * (i + 1)) / (count + 1)));
 
 /**
  * Deterministic start block: the lowest box modes, each perturbed by 1 % of a fixed-seed mixture
  * of the lowest 2·size box modes so that every wanted state is represented whatever the symmetry of the
  * cross-section. (Starting from interpolated coarse-grid states was tried and needed more fine
- * iterations: bilinear interpolation leaves an O(1) residual.)
+ * iterations: bilinear interpolation leaves an O(1) residual.) Smooth modes rather than white
+ * noise, which would put a large residual into every vector. Every mode is a product of 1-D
+ * sines, so each vector is summed as Σ_q u_q(x) sin_q(y), one pass over the grid per distinct q.
  */
 function startBlock(grid: CrossSectionGrid, size: number): Float64Array[] {
-  const block = boxModes(grid, size);
-  // Perturb with smooth box modes (white noise would put a large residual into every vector).
+  const { nx, ny } = grid;
   const extra = boxModes(grid, 2 * size);
+  // Tables indexed by mode number (entry 0 unused).
+  const sx = Array.from({ length: 1 + Math.max(...extra.map((m) => m[0])) }, (_, p) => sines(nx, p));
+  const sy = Array.from({ length: 1 + Math.max(...extra.map((m) => m[1])) }, (_, q) => sines(ny, q));
+  const peak = (v: Float64Array): number => v.reduce((m, x) => Math.max(m, Math.abs(x)), 0);
   const random = seeded(20010517);
-  for (const v of block) {
-    let big = 0;
-    for (let k = 0; k < v.length; k++) big = Math.max(big, Math.abs(v[k]));
-    for (const e of extra) {
-      const c = 0.01 * big * (2 * random() - 1);
-      for (let k = 0; k < v.length; k++) v[k] += c * e[k];
+  return extra.slice(0, size).map(([p, q]) => {
+    const big = peak(sx[p]) * peak(sy[q]);
+    const weights = [1, ...extra.map(() => 0.01 * big * (2 * random() - 1))];
+    const rows = new Map<number, Float64Array>();
+    [[p, q] as [number, number], ...extra].forEach(([a, b], e) => {
+      const u = rows.get(b) ?? new Float64Array(nx);
+      const x = sx[a];
+      for (let i = 0; i < nx; i++) u[i] += weights[e] * x[i];
+      rows.set(b, u);
+    });
+    const v = new Float64Array(nx * ny);
+    for (const [b, u] of rows) {
+      const y = sy[b];
+      for (let j = 0; j < ny; j++) {
+        const t = y[j];
+        const row = nx * j;
+        for (let i = 0; i < nx; i++) v[row + i] += u[i] * t;
+      }
     }
-  }
-  return block;
+    return v;
+  });
 }
 
 /** Scales a unit Euclidean vector to Σψ² dx dy = 1 with its largest-magnitude entry positive. */
@@ -130,7 +144,9 @@ function normalise(v: Float64Array, dxdy: number): Float64Array {
   let s = 0;
   for (let k = 0; k < v.length; k++) s += v[k] * v[k];
   const scale = Math.sign(big || 1) / Math.sqrt(s * dxdy);
-  return v.map((x) => x * scale);
+  const out = new Float64Array(v.length);
+  for (let k = 0; k < v.length; k++) out[k] = v[k] * scale;
+  return out;
 }
 
 /**
@@ -196,7 +212,7 @@ export function solveCrossSection(grid: CrossSectionGrid, count: number, options
   });
   return {
     energies: Array.from(result.values, (v) => v + shift),
-    psi: result.vectors.map((v) => normalise(Float64Array.from(v), dxdy)),
+    psi: result.vectors.map((v) => normalise(v, dxdy)),
     iterations: result.iterations,
     gridSize,
     status: result.converged ? 'converged' : 'max-iterations',
