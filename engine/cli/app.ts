@@ -4,15 +4,18 @@ import { EXIT, type Outcome } from './exit.js';
 import { runSolve } from './solve.js';
 import { runMaterials } from './materials.js';
 import { runDesign, TARGET_HELP } from './design.js';
-import { runReport, runSolvePlot } from './report.js';
-import { REPORT_SAMPLES } from '../report/tolerance.js';
+import { REPORT_SAMPLES } from '../report/defaults.js';
 import { runTolerance } from './tolerance.js';
 import { DEFAULT_TOLERANCE } from '../tolerance/analyse.js';
 import { ROBUST_SAMPLES } from './design.js';
-import { runCampaignCommand } from './campaign.js';
-import { runMerge } from './merge.js';
 import { defaultWorkers } from '../pool.js';
 import { DEFAULT_DESIGN_OPTIONS, DEFAULT_WIRE_DESIGN_OPTIONS } from '../design/search.js';
+
+// The plotting stack (vega), the run store (a native module) and their commands load only when
+// used: a solve or design should not pay their start-up time.
+const reportCommand = () => import('./report.js');
+const campaignCommand = () => import('./campaign.js');
+const mergeCommand = () => import('./merge.js');
 
 /** Runs the command line and returns what to print; main() below does the printing. */
 export async function cli(argv: string[]): Promise<Outcome> {
@@ -29,7 +32,7 @@ export async function cli(argv: string[]): Promise<Outcome> {
         .option('plot', { type: 'string', describe: 'also write the band diagram with states to this .svg file' }),
     async (a) => {
       const args = { spec: a.spec!, json: a.json, wavefunctions: a.wavefunctions, maps: a.maps };
-      outcome = a.plot === undefined ? runSolve(args) : await runSolvePlot(args, a.plot);
+      outcome = a.plot === undefined ? runSolve(args) : await (await reportCommand()).runSolvePlot(args, a.plot);
     })
     .command('design <spec>', 'inverse design: ranked, growable designs for the spec\'s targets', (y) =>
       y.positional('spec', { type: 'string', demandOption: true, describe: 'spec file with vary: and targets:' })
@@ -68,7 +71,7 @@ export async function cli(argv: string[]): Promise<Outcome> {
         .option('tolerance', { type: 'boolean', default: false, describe: 'add the growth-tolerance section (sensitivities, Monte Carlo yield, island lines); spec inputs with targets' })
         .option('samples', { type: 'number', default: REPORT_SAMPLES, describe: 'Monte Carlo samples of --tolerance' })
         .option('workers', { type: 'number', default: defaultWorkers(), describe: 'worker threads of --tolerance' }),
-    async (a) => { outcome = await runReport({ input: a.input!, out: a.out, growthSheet: a.growthSheet, tolerance: a.tolerance, samples: a.samples, workers: a.workers }); })
+    async (a) => { outcome = await (await reportCommand()).runReport({ input: a.input!, out: a.out, growthSheet: a.growthSheet, tolerance: a.tolerance, samples: a.samples, workers: a.workers }); })
     .command('materials [formula]', 'material parameters at a temperature and on a substrate', (y) =>
       y.positional('formula', { type: 'string', describe: 'e.g. In0.2Ga0.8As (omit to list the binaries)' })
         .option('on', { type: 'string', describe: 'substrate the layer is strained on, e.g. GaAs' })
@@ -82,11 +85,11 @@ export async function cli(argv: string[]): Promise<Outcome> {
         .option('shard', { type: 'string', describe: 'run only shard i of N, e.g. 2/3 (jobs with index mod N = i - 1)' })
         .option('export', { type: 'string', choices: ['csv'], describe: 'also write all ranked designs to OUT/designs.csv' })
         .option('slurm', { type: 'number', describe: 'write a Slurm job array of N shards, a dependent merge job and submit.sh to OUT/slurm; runs nothing' }),
-    async (a) => { outcome = await runCampaignCommand({ file: a.file!, out: a.out, workers: a.workers, shard: a.shard, export: a.export, slurm: a.slurm }); })
+    async (a) => { outcome = await (await campaignCommand()).runCampaignCommand({ file: a.file!, out: a.out, workers: a.workers, shard: a.shard, export: a.export, slurm: a.slurm }); })
     .command('merge <out> <dirs..>', 'join shard run stores into the run store of OUT (idempotent)', (y) =>
       y.positional('out', { type: 'string', demandOption: true, describe: 'run folder to merge into (created if missing)' })
         .positional('dirs', { type: 'string', array: true, demandOption: true, describe: 'shard run folders' }),
-    (a) => { outcome = runMerge({ out: a.out!, dirs: a.dirs! }); })
+    async (a) => { outcome = (await mergeCommand()).runMerge({ out: a.out!, dirs: a.dirs! }); })
     .demandCommand(1, 'give a command: solve, design, materials, campaign, merge, report (see --help)')
     .strict()
     .help()

@@ -13,7 +13,8 @@ export { escapeHtml } from './html.js';
 export { PALETTE, BAND_COLOURS } from './palette.js';
 export { wireSections, materialsMapSpec, stateMapsSpec, wireDosSpec, MAPPED_STATES } from './wire.js';
 export { readCampaign, isRunStorePath, campaignPlotSpec, sweptTransition, campaignSections, type CampaignReport, type CampaignJob, type SweepPoint } from './campaign.js';
-export { toleranceReport, toleranceSection, targetWindows, histogram, yieldText, REPORT_SAMPLES, type ToleranceReport, type TargetWindow } from './tolerance.js';
+export { REPORT_SAMPLES } from './defaults.js';
+export { toleranceReport, toleranceSection, targetWindows, histogram, yieldText, type ToleranceReport, type TargetWindow } from './tolerance.js';
 
 /** Title, header lines and status badge of a report page. */
 function headerOf(input: ReportInput): { title: string; meta: string[]; status: { ok: boolean; text: string } } {

@@ -17,8 +17,6 @@ import { escapeHtml, figureHtml, htmlTable, type Section } from './html.js';
 import { PALETTE } from './palette.js';
 import { renderSvg } from './render.js';
 
-/** Monte Carlo samples of `report --tolerance` unless --samples says otherwise: p5/p95 to about ±1 % of the samples. */
-export const REPORT_SAMPLES = 500;
 
 /** A target's window on its quantity's axis: goal ± halfWidth, in the quantity's unit. */
 export interface TargetWindow {
