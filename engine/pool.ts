@@ -21,8 +21,45 @@ function unwrap(r: WorkerResponse): WorkerResult {
   throw new Error(`worker failed: ${r.name}: ${r.message}`);
 }
 
-/** A thread takes roughly this long to load the engine here (0.1–0.3 s measured on 2 cores). */
+/** A thread takes roughly this long to load the engine here (0.1–0.3 s measured on 2 cores), before its JIT warms up. */
 const THREAD_START_DELAY_MS = 300;
+
+type Pool = import('piscina').Piscina<WorkerTask, WorkerResponse>;
+
+/**
+ * The process's worker threads, kept between calls so that a campaign, a robust ranking or a
+ * library user running many searches pays thread start-up and JIT warm-up once. Threads are
+ * unreferenced between calls, so they never keep the process alive.
+ */
+let shared: { readonly threads: number; readonly pool: Pool } | undefined;
+
+function threadPool(Piscina: typeof import('piscina').Piscina, threads: number): Pool {
+  if (shared?.threads === threads) return shared.pool;
+  void shared?.pool.destroy();
+  const pool: Pool = new Piscina<WorkerTask, WorkerResponse>({
+    filename: new URL(isTs ? './worker.ts' : './worker.js', import.meta.url).href,
+    execArgv: isTs ? ['--import', import.meta.resolve('tsx')] : [],
+    minThreads: threads,
+    maxThreads: threads,
+  });
+  shared = { threads, pool };
+  return pool;
+}
+
+/** Referenced while a call runs (the process waits for its tasks), unreferenced after. */
+function hold(pool: Pool, busy: boolean): void {
+  for (const t of pool.threads) {
+    if (busy) t.ref();
+    else t.unref();
+  }
+}
+
+/** Stops the shared threads (tests and long-lived hosts that want them gone). */
+export async function closePool(): Promise<void> {
+  const old = shared;
+  shared = undefined;
+  await old?.pool.destroy();
+}
 
 export interface PoolOptions {
   readonly workers: number;
@@ -63,19 +100,16 @@ export async function runTasks(tasks: readonly WorkerTask[], options: PoolOption
   }
   // Threads start only once this thread has worked for about as long as starting one takes
   // (loading the engine and warming it up): a search that finishes sooner never pays for them.
-  let pool: import('piscina').Piscina<WorkerTask, WorkerResponse> | undefined;
+  // A pool already warm from an earlier call in this process is used at once.
+  let pool: Pool | undefined;
   const startThreads = async (): Promise<void> => {
     if (done === tasks.length) return;
+    // Loaded only when threads are needed: a one-worker run never pays for it.
     const { Piscina } = await import('piscina');
     if (done === tasks.length) return;
-    const p = new Piscina<WorkerTask, WorkerResponse>({
-      filename: new URL(isTs ? './worker.ts' : './worker.js', import.meta.url).href,
-      execArgv: isTs ? ['--import', import.meta.resolve('tsx')] : [],
-      minThreads: threads,
-      maxThreads: threads,
-      idleTimeout: 1000,
-    });
+    const p = threadPool(Piscina, threads);
     pool = p;
+    hold(p, true);
     const lane = async (): Promise<void> => {
       for (let i = take(); i >= 0 && done < tasks.length; i = take()) {
         state[i] = 1;
@@ -83,15 +117,17 @@ export async function runTasks(tasks: readonly WorkerTask[], options: PoolOption
         if (response) finish(i, unwrap(response));
       }
     };
-    for (let k = 0; k < threads; k++) lane().catch(settle);
+    // Two tasks in flight per thread: the next one is already queued when a thread finishes,
+    // instead of waiting for this thread to pause between its own tasks to hand it one.
+    for (let k = 0; k < 2 * threads; k++) lane().catch(settle);
   };
-  const timer = setTimeout(() => { startThreads().catch(settle); }, THREAD_START_DELAY_MS);
+  const timer = setTimeout(() => { startThreads().catch(settle); }, shared?.threads === threads ? 0 : THREAD_START_DELAY_MS);
   try {
     here().catch(settle);
     if (tasks.length > 0) await finished;
   } finally {
     clearTimeout(timer);
-    await pool?.destroy();
+    if (pool) hold(pool, false);
   }
   return out;
 }
