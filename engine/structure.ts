@@ -206,7 +206,12 @@ function memo<V>(table: Map<string, V>, key: string, make: () => V): V {
 }
 const formulas = new Map<string, Alloy>();
 const materials = new Map<string, ResolvedMaterial>();
-const alloyKey = (a: Alloy): string => `${JSON.stringify(Object.entries(a.III).sort())}|${JSON.stringify(Object.entries(a.V).sort())}`;
+const sideKey = (side: Readonly<Record<string, number>>): string => {
+  let key = '';
+  for (const k of Object.keys(side).sort()) key += `${k}${side[k]},`;
+  return key;
+};
+const alloyKey = (a: Alloy): string => `${sideKey(a.III)}|${sideKey(a.V)}`;
 
 const parseFormulaAt = (text: string, field: string): Alloy => memo(formulas, text, () => withField(field, () => parseFormula(text)));
 const alloyAt = (name: string, fractions: Record<string, number>, field: string): Alloy => withField(field, () => alloyFromName(name, fractions));

@@ -11,13 +11,20 @@ export type Length = { readonly nm: number } | { readonly ml: number };
 const NUMBER = String.raw`([-+]?(?:\d+\.?\d*|\.\d+)(?:[eE][-+]?\d+)?)`;
 const QUANTITY = new RegExp(String.raw`^\s*${NUMBER}\s*([^\s\d].*?)?\s*$`);
 
+/** Parsed quantity strings: a search re-reads the same few spec strings at every evaluation. */
+const parsed = new Map<string, { readonly value: number; readonly unit: string } | null>();
+
 /** Splits "10 nm" into 10 and "nm"; a bare number gives unit ''. Returns null when not a quantity. */
-export function splitQuantity(input: string | number): { value: number; unit: string } | null {
+export function splitQuantity(input: string | number): { readonly value: number; readonly unit: string } | null {
   if (typeof input === 'number') return Number.isFinite(input) ? { value: input, unit: '' } : null;
+  const hit = parsed.get(input);
+  if (hit !== undefined) return hit;
   const m = QUANTITY.exec(input);
-  if (!m) return null;
-  const value = Number(m[1]);
-  return Number.isFinite(value) ? { value, unit: (m[2] ?? '').trim() } : null;
+  const value = m ? Number(m[1]) : NaN;
+  const q = m && Number.isFinite(value) ? { value, unit: (m[2] ?? '').trim() } : null;
+  if (parsed.size >= 4096) parsed.clear();
+  parsed.set(input, q);
+  return q;
 }
 
 const LENGTH_UNITS: Readonly<Record<string, number>> = { nm: 1, 'Å': 0.1, A: 0.1, angstrom: 0.1, um: 1000, 'µm': 1000, 'μm': 1000 };
