@@ -12,7 +12,7 @@ import { slurmScripts } from '../campaign/slurm.js';
 import { InputError } from '../errors.js';
 import { RunStore } from '../store/store.js';
 import { EXIT, failure, success, type Outcome } from './exit.js';
-import { sig, table } from './format.js';
+import { sig, table, toJson } from './format.js';
 import { writeFileAtomic } from './output.js';
 import { progressBar } from './progress.js';
 
@@ -23,6 +23,7 @@ export interface CampaignArgs {
   readonly shard: string | undefined;
   readonly export: string | undefined;
   readonly slurm: number | undefined;
+  readonly json?: boolean;
 }
 
 /** The run folder when --out is not given: beside the campaign file, named after it. */
@@ -75,6 +76,15 @@ function describe(store: RunStore, summary: RunSummary, shard: Shard): string {
   ].join('\n');
 }
 
+/** The machine-readable form: the run summary and every job with its ranked designs' values and losses. */
+function campaignJson(store: RunStore, summary: RunSummary): string {
+  const jobs = store.jobs().map((j) => ({
+    name: j.name, index: j.idx, state: j.state, status: j.status, message: j.message,
+    designs: store.designs(j.name).map((d) => ({ rank: d.rank, loss: d.loss, satisfied: d.satisfied === 1, values: JSON.parse(d.values_json) as unknown })),
+  }));
+  return toJson({ store: store.path, summary, jobs });
+}
+
 export async function runCampaignCommand(args: CampaignArgs): Promise<Outcome> {
   const bar = progressBar('campaign');
   let signal: NodeJS.Signals | undefined;
@@ -102,7 +112,7 @@ export async function runCampaignCommand(args: CampaignArgs): Promise<Outcome> {
       return { code: 128 + (signal === 'SIGTERM' ? 15 : 2), stdout: '', stderr: `wellsmith: campaign stopped by ${signal ?? 'request'} after the last finished start; every finished start is stored in ${store.path}. Resume with: ${resume}\n` };
     }
     if (args.export === 'csv') writeFileAtomic(join(out, 'designs.csv'), designsCsv(store));
-    return success(`${describe(store, summary, shard)}\n`, summary.failed.length > 0 ? EXIT.physics : EXIT.ok);
+    return success(`${args.json ? campaignJson(store, summary) : describe(store, summary, shard)}\n`, summary.failed.length > 0 ? EXIT.physics : EXIT.ok);
   } catch (e) {
     bar.stop();
     return failure(e);
