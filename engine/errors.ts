@@ -26,9 +26,13 @@ export class InputError extends Error {
 export const isInputError = (e: unknown): e is InputError => e instanceof InputError;
 
 /**
- * Throws a bad-value InputError in the project's one-line shape "where: what, got X; what to do",
- * for library functions whose arguments are checked directly rather than through a spec.
+ * A bad-value InputError in the project's one-line shape "where: what, got X; what to do", for
+ * library functions whose arguments are checked directly rather than through a spec.
  */
-export const failBadValue = (where: string, what: string, got: unknown, todo: string): never => {
-  throw new InputError('bad-value', `${where}: ${what}, got ${String(got)}; ${todo}`);
+export const badValue = (where: string, what: string, got: unknown, fix: string, field?: string): InputError =>
+  new InputError('bad-value', `${where}: ${what}, got ${String(got)}; ${fix}`, field);
+
+/** Throws badValue(…): for use in expressions. */
+export const failBadValue = (where: string, what: string, got: unknown, fix: string): never => {
+  throw badValue(where, what, got, fix);
 };

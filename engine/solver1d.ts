@@ -30,7 +30,7 @@
  */
 
 import { HBAR2_OVER_2M0 } from './constants.js';
-import { InputError } from './errors.js';
+import { badValue, type InputError } from './errors.js';
 import type { BandName, BandProfile } from './profile.js';
 
 /** One bound state. */
@@ -94,9 +94,7 @@ interface Sweep {
 
 const isFiniteNumber = (x: unknown): x is number => typeof x === 'number' && Number.isFinite(x);
 
-function bad(field: string, what: string, got: unknown, todo: string): InputError {
-  return new InputError('bad-value', `${field}: ${what}, got ${String(got)}; ${todo}`, field);
-}
+const bad = (field: string, what: string, got: unknown, fix: string): InputError => badValue(field, what, got, fix, field);
 
 function unpack(profile: BandProfile): Unpacked {
   const slices = profile.slices;

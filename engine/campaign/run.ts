@@ -87,11 +87,11 @@ export async function runCampaign(campaign: Campaign, store: RunStore, options: 
     try {
       const tasks = designTasks(job.spec, job.options);
       const have = new Set(store.outcomes(job.name).map((o) => o.index));
-      const todo = tasks.filter((t) => !have.has(t.index));
+      const remaining = tasks.filter((t) => !have.has(t.index));
       startsReused += have.size;
       report(job.name, have.size, tasks.length);
       let t0 = performance.now();
-      await runTasks(todo, {
+      await runTasks(remaining, {
         workers: options.workers,
         onProgress: (done, _total, result) => {
           if (result.type !== 'design-start') throw new Error(`campaign: a design start returned a ${result.type} result`);

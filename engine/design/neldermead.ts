@@ -75,8 +75,8 @@ interface Vertex {
   f: number;
 }
 
-const badOption = (what: string, got: unknown, todo: string): InputError =>
-  new InputError('bad-value', `minimize ${what}, got ${String(got)}; ${todo}`);
+const badOption = (what: string, got: unknown, fix: string): InputError =>
+  new InputError('bad-value', `minimize ${what}, got ${String(got)}; ${fix}`);
 
 const checkOptions = (x0: readonly number[], options: NelderMeadOptions): void => {
   const { bounds, maxEvaluations, xTolerance, fTolerance, initialStep, adaptive } = options;
