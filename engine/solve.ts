@@ -135,33 +135,55 @@ function solveOneBand(structure: Structure, band: BandName, settings: SolverSett
   return { profile: build(settings.slice_nm / 2), solution: solveBandExtrapolated(build, settings.slice_nm, options) };
 }
 
-function inPlaneMass(profile: BandProfile, z: Float64Array, psi: Float64Array): number {
+/**
+ * Probability-weighted in-plane mass (∫|ψ|²/m∥ dz)⁻¹ at the state's energy: with two-band
+ * non-parabolicity each slice's mass is m∥(1 + α(E − V)), as along z.
+ */
+function inPlaneMass(profile: BandProfile, z: Float64Array, psi: Float64Array, energy: number): number {
   let acc = 0;
   let norm = 0;
   let k = 0;
   let end = profile.slices[0]!.width_nm;
   for (let i = 0; i < z.length; i++) {
     while (k < profile.slices.length - 1 && z[i]! > end) end += profile.slices[++k]!.width_nm;
+    const slice = profile.slices[k]!;
     const p2 = psi[i]! * psi[i]!;
-    acc += p2 / profile.slices[k]!.massInPlane;
+    acc += p2 / (slice.massInPlane * (1 + slice.alpha * (energy - slice.V)));
     norm += p2;
   }
   return norm > 0 ? norm / acc : profile.slices[0]!.massInPlane;
 }
 
-/** Fraction of |ψ|² in the first and last layers (the claddings). */
-function outerShare(structure: Structure, z: Float64Array, psi: Float64Array): number {
+/**
+ * Fraction of |ψ|² in the downhill outer layer (the first or the last layer, whichever the field
+ * pulls lower). Above the open edge a state mostly there is a box state of the contact, not a
+ * state of the structure.
+ */
+function contactShare(structure: Structure, profile: BandProfile, z: Float64Array, psi: Float64Array): number {
+  const leftDownhill = profile.slices[0]!.V < profile.slices[profile.slices.length - 1]!.V;
   const a = structure.layers[0]!.thickness_nm;
   const b = structure.total_nm - structure.layers[structure.layers.length - 1]!.thickness_nm;
-  let out = 0;
+  let inside = 0;
   let all = 0;
   for (let i = 0; i < z.length; i++) {
     const p = psi[i]! * psi[i]!;
     all += p;
-    if (z[i]! < a || z[i]! > b) out += p;
+    if (leftDownhill ? z[i]! < a : z[i]! > b) inside += p;
   }
-  return all > 0 ? out / all : 0;
+  return all > 0 ? inside / all : 0;
 }
+
+/** Spacing (nm) of the grid that sorts states above the open edge when no wavefunctions are sampled. */
+const SORT_GRID_NM = 0.25;
+/** Extra states asked for under a field, so that contact box states do not push real ones out of a limited count. */
+const FIELD_STATE_MARGIN = 3;
+
+const uniformGrid = (length: number, step: number): Float64Array => {
+  const n = Math.max(2, Math.round(length / step) + 1);
+  const z = new Float64Array(n);
+  for (let i = 0; i < n; i++) z[i] = (length * i) / (n - 1);
+  return z;
+};
 
 /**
  * Solves a resolved structure: every bound state of the three bands and their observables.
@@ -178,24 +200,30 @@ export interface SolveOptions {
 
 export function solveStructure(structure: Structure, settings: SolverSettings = DEFAULT_SETTINGS, options: SolveOptions = {}): SolveResult {
   const sample = options.wavefunctions ?? true;
-  const n = sample ? Math.max(2, Math.round(structure.total_nm / settings.grid_nm) + 1) : 0;
-  const z = new Float64Array(n);
-  for (let i = 0; i < n; i++) z[i] = (structure.total_nm * i) / (n - 1);
+  const z = sample ? uniformGrid(structure.total_nm, settings.grid_nm) : new Float64Array(0);
+  const field = structure.field_kV_per_cm !== 0;
+  let sortGrid: Float64Array | undefined;
 
   const bands = {} as Record<BandName, BandResult>;
   const psi = {} as Record<BandName, Float64Array[]>;
   const dosBands = {} as Record<BandName, DosStep[]>;
   for (const band of BANDS) {
     const wanted = options.states?.[band];
-    const { profile, solution } = solveOneBand(structure, band, wanted === undefined ? settings : { ...settings, maxStates: Math.min(settings.maxStates, wanted) });
+    const ask = wanted === undefined ? settings.maxStates : Math.min(settings.maxStates, wanted === 0 || !field ? wanted : wanted + FIELD_STATE_MARGIN);
+    const { profile, solution } = solveOneBand(structure, band, { ...settings, maxStates: ask });
     const sign = profile.sign;
     let vmin = Infinity;
     for (const s of profile.slices) vmin = Math.min(vmin, s.V);
-    const allWaves = solution.states.map((s) => (sample ? wavefunction(profile, s.energy, z) : z));
-    // Under a field the raised outer regions also hold box states of the downhill contact
-    // layer: continuum there, not states of the structure, so they are not reported.
-    const kept = solution.states.flatMap((s, k) =>
-      s.energy < profile.openEdge || (sample && outerShare(structure, z, allWaves[k]!) < 0.5) ? [{ s, psi: allWaves[k]! }] : []);
+    // Under a field the raised outer regions also hold box states of the downhill contact layer:
+    // continuum there, not states of the structure, so they are not reported. The same rule holds
+    // whether or not wavefunctions are sampled, so a search scores the states solve reports.
+    const kept = solution.states.flatMap((s) => {
+      const wave = sample ? wavefunction(profile, s.energy, z) : z;
+      if (s.energy < profile.openEdge) return [{ s, psi: wave }];
+      const grid = sample ? z : (sortGrid ??= uniformGrid(structure.total_nm, SORT_GRID_NM));
+      const w = sample ? wave : wavefunction(profile, s.energy, grid);
+      return contactShare(structure, profile, grid, w) < 0.5 ? [{ s, psi: wave }] : [];
+    }).slice(0, wanted ?? Infinity);
     const waves = kept.map((k) => k.psi);
     const states = kept.map(({ s, psi }, k): StateResult => ({
       label: `${PREFIX[band]}${k + 1}`,
@@ -204,7 +232,7 @@ export function solveStructure(structure: Structure, settings: SolverSettings = 
       confinement_meV: (s.energy - vmin) * 1000,
       bound: s.energy < profile.openEdge,
       nodes: s.nodes,
-      mass_inplane: sample ? inPlaneMass(profile, z, psi) : NaN,
+      mass_inplane: sample ? inPlaneMass(profile, z, psi, s.energy) : NaN,
     }));
     bands[band] = { states, edge_eV: sign * vmin, barrier_eV: sign * profile.openEdge, evaluations: solution.evaluations };
     psi[band] = waves;

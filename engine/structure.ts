@@ -270,27 +270,51 @@ export interface Perturbation {
   readonly temperature_K?: number;
 }
 
+/** The two mixed elements of one side of a formula, in print order (In, Al, Ga | As, P, Sb), or null. */
+function mixedPair(side: Readonly<Record<string, number>>): [string, string] | null {
+  const mixed = Object.keys(side).filter((k) => side[k]! > 0 && side[k]! < 1);
+  if (mixed.length < 2) return null;
+  return ORDER.filter((e) => mixed.includes(e)).concat(mixed.filter((e) => !ORDER.includes(e))).slice(0, 2) as [string, string];
+}
+
+/** Moves dx of fraction from b to a on one side, clamped to [0, 1]. */
+function shiftPair(side: Readonly<Record<string, number>>, [a, b]: readonly [string, string], dx: number): Record<string, number> {
+  const d = Math.min(Math.max(dx, -(side[a] ?? 0)), side[b] ?? 0);
+  return { ...side, [a]: (side[a] ?? 0) + d, [b]: (side[b] ?? 0) - d };
+}
+
+/** Which side and pair a composition error moves: group III when it is mixed, else group V. */
+function errorPair(alloy: Alloy): { side: 'III' | 'V'; pair: [string, string] } | null {
+  const III = mixedPair(alloy.III);
+  if (III) return { side: 'III', pair: III };
+  const V = mixedPair(alloy.V);
+  return V ? { side: 'V', pair: V } : null;
+}
+
+const shiftWith = (alloy: Alloy, e: { side: 'III' | 'V'; pair: [string, string] }, dx: number): Alloy =>
+  e.side === 'III' ? { III: shiftPair(alloy.III, e.pair, dx), V: alloy.V } : { III: alloy.III, V: shiftPair(alloy.V, e.pair, dx) };
+
 /** The alloy with its mixed fraction moved by dx (see Perturbation), clamped to [0, 1]. */
 export function shiftComposition(alloy: Alloy, dx: number): Alloy {
-  const shift = (side: Readonly<Record<string, number>>): Record<string, number> | null => {
-    const mixed = Object.keys(side).filter((k) => side[k]! > 0 && side[k]! < 1);
-    if (mixed.length < 2) return null;
-    const [a, b] = ORDER.filter((e) => mixed.includes(e)).concat(mixed.filter((e) => !ORDER.includes(e))) as [string, string];
-    const d = Math.min(Math.max(dx, -side[a]!), side[b]!);
-    return { ...side, [a]: side[a]! + d, [b]: side[b]! - d };
-  };
-  const III = shift(alloy.III);
-  if (III) return { III, V: alloy.V };
-  const V = shift(alloy.V);
-  return V ? { III: alloy.III, V } : alloy;
+  const e = errorPair(alloy);
+  return e ? shiftWith(alloy, e, dx) : alloy;
 }
 
 /** Print order of elements, for choosing which fraction a composition error moves. */
 const ORDER: readonly string[] = [...GROUP_III, ...GROUP_V];
 
-function perturbComposition(c: LayerComposition, dx: number): LayerComposition {
+/**
+ * A composition error of a layer. A graded layer moves, at both ends, the pair of elements that is
+ * mixed at either end (a GaAs → Al0.3Ga0.7As grade moves Al/Ga at both ends, not only at the mixed one).
+ */
+export function perturbComposition(c: LayerComposition, dx: number): LayerComposition {
   if (dx === 0 || c.kind === 'custom') return c;
-  return c.kind === 'alloy' ? { kind: 'alloy', alloy: shiftComposition(c.alloy, dx) } : { kind: 'graded', from: shiftComposition(c.from, dx), to: shiftComposition(c.to, dx) };
+  if (c.kind === 'alloy') {
+    const alloy = shiftComposition(c.alloy, dx);
+    return alloy === c.alloy ? c : { kind: 'alloy', alloy };
+  }
+  const e = errorPair(c.from) ?? errorPair(c.to);
+  return e ? { kind: 'graded', from: shiftWith(c.from, e, dx), to: shiftWith(c.to, e, dx) } : c;
 }
 
 /** Builds the Structure of a spec at the given variable values, optionally with growth errors. */

@@ -65,19 +65,22 @@ export function edgeShifts(
 /**
  * Matthews–Blakeslee critical thickness (nm) of a strained layer for 60° misfit dislocations
  * (J. W. Matthews and A. E. Blakeslee, J. Cryst. Growth 27, 118 (1974)):
- *   h_c = b/(2π f) · (1 − ν cos²α)/((1 + ν) cos λ) · (ln(h_c/b) + 1),
+ *   h_c = b/(4π f) · (1 − ν cos²α)/((1 + ν) cos λ) · (ln(h_c/b) + 1),
  * b = a/√2 (a: relaxed lattice constant of the layer, nm), f = |mismatch|, ν = C12/(C11 + C12),
  * cos α = cos λ = 1/2, solved by fixed-point iteration from above (the map is increasing and
  * concave, so it converges to the larger, physical root).
  *
- * This is the form with 2π, which we take as the one for a layer buried between unstrained
- * material (a quantum well capped by barriers), the case this tool designs; the form quoted for
- * a single uncapped layer on a substrate halves the right-hand side (4π), giving about half the
- * thickness. Which published form carries which factor is recalled from memory. Measured critical
- * widths of InGaAs/GaAs wells agree with this estimate (T. G. Andersson et al., Appl. Phys. Lett.
- * 51, 752 (1987)).
+ * Published forms of this balance differ by a factor of 2 in the prefactor (2π or 4π; single
+ * uncapped layer versus a layer capped by unstrained material), and which form belongs to which
+ * case is recalled from memory here. We use the 4π form, the smaller critical thickness: a force
+ * balance of the misfit-strain force 2G b h ε (1+ν)/(1−ν) cos λ against the dislocation line
+ * tension G b² (1 − ν cos²α)/(4π(1−ν)) (ln(h/b) + 1) gives it for the capped well this tool
+ * designs, and as a growth constraint it errs on the safe side. For In0.2Ga0.8As on GaAs it gives
+ * ≈ 14.3 nm, in the range of the critical widths measured for InGaAs/GaAs wells by T. G. Andersson
+ * et al., Appl. Phys. Lett. 51, 752 (1987) (the abstract, seen, says they agree with Matthews–
+ * Blakeslee; the measured widths themselves are from memory).
  * Returns Infinity for f = 0, and 0 when no root exceeds one Burgers vector (the layer cannot be
- * grown coherently at any thickness). Example: In0.2Ga0.8As on GaAs (f ≈ 1.43 %) → ≈ 34 nm.
+ * grown coherently at any thickness).
  */
 export function criticalThickness(a_nm: number, mismatch: number, C11: number, C12: number): number {
   const f = Math.abs(mismatch);
@@ -85,7 +88,7 @@ export function criticalThickness(a_nm: number, mismatch: number, C11: number, C
   const b = a_nm / Math.SQRT2;
   const nu = C12 / (C11 + C12);
   const cos = 0.5;
-  const A = (b / (2 * Math.PI * f)) * (1 - nu * cos * cos) / ((1 + nu) * cos);
+  const A = (b / (4 * Math.PI * f)) * (1 - nu * cos * cos) / ((1 + nu) * cos);
   // u = h/b solves u = k (ln u + 1); only k > 1 has a root above u = 1.
   const kk = A / b;
   if (kk <= 1) return 0;

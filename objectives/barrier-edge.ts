@@ -37,6 +37,6 @@ export const barrierEdgeObjective: Objective<BarrierEdgeTarget> = {
     // a state pushed into the continuum scores as lying beyond the edge.
     const half = within / 2;
     const residual = s ? (depth - half) / half : -(1 + MISSING_STATE_PENALTY);
-    return { label: `${t.at_barrier_edge} below barrier edge`, role: 'target', achieved: s ? depth : null, goal: half, unit: 'meV', residual, weight: t.weight ?? 1, satisfied: s !== undefined && depth <= within };
+    return { label: `${t.at_barrier_edge} below barrier edge`, role: 'target', achieved: s ? depth : null, goal: half, unit: 'meV', residual, weight: t.weight ?? 1, satisfied: s !== undefined && s.bound && depth >= 0 && depth <= within };
   },
 };

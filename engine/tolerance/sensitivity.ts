@@ -3,7 +3,7 @@
  * layer ±1 ML, each alloy layer's fraction ±Δx, every thickness scaled by 1 ± p, temperature ±ΔT),
  * the shift of every measured quantity, ranked by impact.
  */
-import { shiftComposition, buildStructure, type Perturbation, type Structure } from '../structure.js';
+import { perturbComposition, buildStructure, type Perturbation, type Structure } from '../structure.js';
 import { measure, type Measurement, type ToleranceProblem } from './measure.js';
 
 export interface SensitivityOptions {
@@ -37,9 +37,7 @@ const layerName = (s: Structure, i: number): string => `layer ${i + 1}${s.layers
 /** True when a composition error can move this layer's fraction (mixed alloy or graded layer). */
 export function hasMixedFraction(s: Structure, i: number): boolean {
   const c = s.layers[i]!.composition;
-  if (c.kind === 'custom') return false;
-  const a = c.kind === 'alloy' ? c.alloy : c.from;
-  return shiftComposition(a, 1e-3) !== a;
+  return perturbComposition(c, 1e-3) !== c;
 }
 
 const perLayer = (n: number, i: number, v: number): number[] => Array.from({ length: n }, (_, k) => (k === i ? v : 0));

@@ -38,3 +38,21 @@ describe('injected carriers in solve', () => {
     expect(() => solve(spec('300 K', '-3 cm-2'))).toThrow(/carriers.sheet_density/);
   });
 });
+
+describe('in-plane mass with non-parabolicity', () => {
+  it('in a deep well the e1 in-plane mass is the two-band m(1 + α E1) (Nelson, Miller & Kleinman 1987 form)', () => {
+    // Custom materials: a 10 eV-deep well so that penetration into the barrier is negligible (< 1 %).
+    const { spec: s } = parseSpecText(`
+materials:
+  W: { Ec: 0 eV, Ev: -1.5 eV, me: 0.067, mhh: 0.5, mlh: 0.08, lattice: 0.565 nm, nonparabolicity: 0.7 }
+  B: { Ec: 10 eV, Ev: -11.5 eV, me: 0.067, mhh: 0.5, mlh: 0.08, lattice: 0.565 nm, nonparabolicity: 0 }
+stack:
+  - { material: B, thickness: 3 nm }
+  - { material: W, thickness: 6 nm }
+  - { material: B, thickness: 3 nm }
+`);
+    const e1 = solve(s).bands.electron.states[0]!;
+    const expected = 0.067 * (1 + 0.7 * e1.energy_eV);
+    expect(Math.abs(e1.mass_inplane / expected - 1), `got ${e1.mass_inplane}, expected ${expected}`).toBeLessThan(0.01);
+  });
+});

@@ -44,3 +44,20 @@ stack:
     }), { numRuns: 40, seed: 7 });
   });
 });
+
+describe('composition errors', () => {
+  it('move the In/Ga pair of InGaAs, leave binaries alone, and move both ends of a grade that starts at a binary', async () => {
+    const { shiftComposition, perturbComposition } = await import('../../engine/structure.js');
+    const a = shiftComposition(parseFormula('In0.2Ga0.8As'), 0.01);
+    expect(a.III.In).toBeCloseTo(0.21, 12);
+    expect(a.III.Ga).toBeCloseTo(0.79, 12);
+    const gaas = parseFormula('GaAs');
+    expect(shiftComposition(gaas, 0.01)).toBe(gaas);
+    const graded = { kind: 'graded' as const, from: mixAlloys(parseFormula('Al0.3Ga0.7As'), parseFormula('Al0.3Ga0.7As'), 0) , to: parseFormula('Al0.3Ga0.7As') };
+    const fromBinary = { kind: 'graded' as const, from: mixAlloys(gaas, parseFormula('Al0.3Ga0.7As'), 0), to: parseFormula('Al0.3Ga0.7As') };
+    const moved = perturbComposition(fromBinary, 0.01);
+    expect(moved.kind === 'graded' && moved.from.III.Al).toBeCloseTo(0.01, 12);
+    expect(moved.kind === 'graded' && moved.to.III.Al).toBeCloseTo(0.31, 12);
+    expect(perturbComposition(graded, 0)).toBe(graded);
+  });
+});
