@@ -12,7 +12,7 @@ export interface HoleMasses {
  * Hole masses (m0) from γ1, γ2 (dimensionless): along [001] m_hh = 1/(γ1 − 2γ2),
  * m_lh = 1/(γ1 + 2γ2); in-plane in the axial approximation m_hh,∥ = 1/(γ1 + γ2),
  * m_lh,∥ = 1/(γ1 − γ2) (common practice; S. L. Chuang, Physics of Optoelectronic Devices).
- * Example: GaAs (6.98, 2.06) → m_hh,z = 0.350, m_lh,z = 0.0901, m_hh,∥ = 0.1107, m_lh,∥ = 0.2033.
+ * Example: GaAs (6.98, 2.06) → m_hh,z = 0.350, m_lh,z = 0.0901, m_hh,∥ = 0.1106, m_lh,∥ = 0.2033.
  */
 export function holeMasses(p: { readonly gamma1: number; readonly gamma2: number }): HoleMasses {
   return {
