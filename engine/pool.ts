@@ -23,6 +23,8 @@ function unwrap(r: WorkerResponse): WorkerResult {
 
 /** A thread takes roughly this long to load the engine here (0.1–0.3 s measured on 2 cores), before its JIT warms up. */
 const THREAD_START_DELAY_MS = 300;
+/** Threads are started only when, at this thread's pace so far, more than this much work remains: less would not repay loading and warming them up. */
+const MIN_REMAINING_FOR_THREADS_MS = 1000;
 
 type Pool = import('piscina').Piscina<WorkerTask, WorkerResponse>;
 
@@ -31,18 +33,29 @@ type Pool = import('piscina').Piscina<WorkerTask, WorkerResponse>;
  * library user running many searches pays thread start-up and JIT warm-up once. Threads are
  * unreferenced between calls, so they never keep the process alive.
  */
-let shared: { readonly threads: number; readonly pool: Pool } | undefined;
+let shared: { readonly threads: number; readonly pool: Pool; loaded: Promise<unknown> | undefined } | undefined;
+
+/**
+ * Destroying a thread while it is still loading the engine can abort the process inside V8's
+ * module instantiation, so a pool is destroyed only after its first task has come back (the
+ * thread has loaded), or after LOAD_WAIT_MS at most.
+ */
+const LOAD_WAIT_MS = 5000;
+async function destroyLoaded(entry: { readonly pool: Pool; loaded: Promise<unknown> | undefined }): Promise<void> {
+  if (entry.loaded) await Promise.race([entry.loaded.catch(() => undefined), new Promise((resolve) => setTimeout(resolve, LOAD_WAIT_MS).unref())]);
+  await entry.pool.destroy();
+}
 
 function threadPool(Piscina: typeof import('piscina').Piscina, threads: number): Pool {
   if (shared?.threads === threads) return shared.pool;
-  void shared?.pool.destroy();
+  if (shared) void destroyLoaded(shared);
   const pool: Pool = new Piscina<WorkerTask, WorkerResponse>({
     filename: new URL(isTs ? './worker.ts' : './worker.js', import.meta.url).href,
     execArgv: isTs ? ['--import', import.meta.resolve('tsx')] : [],
     minThreads: threads,
     maxThreads: threads,
   });
-  shared = { threads, pool };
+  shared = { threads, pool, loaded: undefined };
   return pool;
 }
 
@@ -58,11 +71,15 @@ function hold(pool: Pool, busy: boolean): void {
 export async function closePool(): Promise<void> {
   const old = shared;
   shared = undefined;
-  await old?.pool.destroy();
+  if (old) await destroyLoaded(old);
 }
 
 export interface PoolOptions {
   readonly workers: number;
+  /** Start worker threads at once instead of only when the work left would repay them (tests of the thread path). */
+  readonly eager?: boolean;
+  /** Diagnostics: called with the task index whenever a worker thread's result is the one kept. */
+  readonly onThreadResult?: (index: number) => void;
   /** Called after each finished task with the count done so far. */
   readonly onProgress?: (done: number, total: number, last: WorkerResult) => void;
 }
@@ -113,15 +130,25 @@ export async function runTasks(tasks: readonly WorkerTask[], options: PoolOption
     const lane = async (): Promise<void> => {
       for (let i = take(); i >= 0 && done < tasks.length; i = take()) {
         state[i] = 1;
-        const response = await p.run(tasks[i]!).catch((e: unknown) => (state[i] === 2 ? null : Promise.reject(e)));
-        if (response) finish(i, unwrap(response));
+        const run = p.run(tasks[i]!);
+        if (shared?.pool === p) shared.loaded ??= run;
+        const response = await run.catch((e: unknown) => (state[i] === 2 ? null : Promise.reject(e)));
+        if (response && state[i] !== 2) {
+          options.onThreadResult?.(i);
+          finish(i, unwrap(response));
+        }
       }
     };
     // Two tasks in flight per thread: the next one is already queued when a thread finishes,
     // instead of waiting for this thread to pause between its own tasks to hand it one.
     for (let k = 0; k < 2 * threads; k++) lane().catch(settle);
   };
-  const timer = setTimeout(() => { startThreads().catch(settle); }, shared?.threads === threads ? 0 : THREAD_START_DELAY_MS);
+  const started = performance.now();
+  const timer = setTimeout(() => {
+    const elapsed = performance.now() - started;
+    const remaining = done > 0 ? (elapsed / done) * (tasks.length - done) : Infinity;
+    if (options.eager || shared?.threads === threads || remaining > MIN_REMAINING_FOR_THREADS_MS) startThreads().catch(settle);
+  }, options.eager || shared?.threads === threads ? 0 : THREAD_START_DELAY_MS);
   try {
     here().catch(settle);
     if (tasks.length > 0) await finished;

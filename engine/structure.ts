@@ -74,6 +74,13 @@ export const GRADE_SAMPLES = 65;
 
 export const PARAMETER_SET = 'Vurgaftman, Meyer & Ram-Mohan, J. Appl. Phys. 89, 5815 (2001)';
 
+/** Highest temperature accepted: the Varshni fits of the parameter set are made up to about this (K). */
+export const MAX_TEMPERATURE_K = 1000;
+/** Largest field accepted (kV/cm): several times the breakdown field of the III–V materials here. */
+export const MAX_FIELD_KV_PER_CM = 2000;
+/** Thinnest layer accepted (nm): a tenth of a monolayer, below which a "layer" is a typing error. */
+export const MIN_LAYER_NM = 0.03;
+
 /** Largest total stack thickness (nm): beyond it the wavefunction grid and the state count grow without physical purpose. */
 export const MAX_TOTAL_NM = 10_000;
 
@@ -323,7 +330,9 @@ export function buildStructure(spec: Spec, values: Readonly<Record<string, numbe
   const nominalT = num(spec.temperature, parseTemperature, 'temperature', 300);
   const temperature_K = nominalT + (perturbation.temperature_K ?? 0);
   if (!(temperature_K >= 0) || !Number.isFinite(temperature_K)) throw new InputError('bad-value', `temperature: must be 0 K or above, got ${spec.temperature}; give it in K, e.g. "300 K"`, 'temperature');
+  if (nominalT > MAX_TEMPERATURE_K) throw new InputError('bad-value', `temperature: ${spec.temperature} is above ${MAX_TEMPERATURE_K} K, beyond the Varshni fits of the parameter set; give a growth or operating temperature`, 'temperature');
   const field_kV_per_cm = num(spec.field, parseField, 'field', 0);
+  if (!(Math.abs(field_kV_per_cm) <= MAX_FIELD_KV_PER_CM)) throw new InputError('bad-value', `field: ${spec.field} is beyond ±${MAX_FIELD_KV_PER_CM} kV/cm, above the breakdown field of these materials; give a field below it`, 'field');
   const substrate = spec.substrate === undefined ? null : parseFormulaAt(spec.substrate, 'substrate');
   if (substrate) resolveComposition(spec, substrate, temperature_K, null, 'substrate');
   const ctx: Context = { spec, vars, values, temperature_K, substrate };
@@ -389,6 +398,7 @@ export function buildStructure(spec: Spec, values: Readonly<Record<string, numbe
     }
     const thickness_nm = (('ml' in length ? length.ml * ml : length.nm) + (dML === 0 ? 0 : dML * ml)) * (perturbation.thicknessScale ?? 1);
     if (!(thickness_nm > 0) || !Number.isFinite(thickness_nm)) throw new InputError('bad-value', `${field}.thickness: must be positive, got ${JSON.stringify(t)}${isName ? ` = ${thickness_nm} nm` : ''}`, `${field}.thickness`);
+    if (thickness_nm < MIN_LAYER_NM) throw new InputError('bad-value', `${field}.thickness: ${JSON.stringify(t)} is thinner than ${MIN_LAYER_NM} nm (a tenth of a monolayer); check the unit`, `${field}.thickness`);
     total += thickness_nm;
     if (total > MAX_TOTAL_NM) throw new InputError('bad-value', `${field}.thickness: the stack reaches ${total.toPrecision(4)} nm, above the ${MAX_TOTAL_NM / 1000} µm an envelope-function solve handles here; model only the active region (the outer layers continue outwards)`, `${field}.thickness`);
     const formula = composition.kind === 'custom' ? composition.name : composition.kind === 'alloy' ? formatFormula(composition.alloy) : `${formatFormula(composition.from)}→${formatFormula(composition.to)}`;

@@ -91,7 +91,7 @@ export async function cli(argv: string[]): Promise<Outcome> {
       y.positional('out', { type: 'string', demandOption: true, describe: 'run folder to merge into (created if missing)' })
         .positional('dirs', { type: 'string', array: true, demandOption: true, describe: 'shard run folders' }),
     async (a) => { outcome = (await mergeCommand()).runMerge({ out: a.out!, dirs: a.dirs! }); })
-    .demandCommand(1, 'give a command: solve, design, materials, campaign, merge, report (see --help)')
+    .demandCommand(1, 'give a command: solve, design, tolerance, campaign, merge, report, materials (see --help)')
     .strict()
     .help()
     .version()

@@ -1,4 +1,5 @@
 /** `wellsmith design SPEC`: ranked, growable designs for the spec's targets. */
+import { readdirSync, rmSync } from 'node:fs';
 import { join } from 'node:path';
 import { describeObjectives } from '../../objectives/index.js';
 import { defaultDesignOptions, design, type Design, type DesignResult } from '../design/search.js';
@@ -101,14 +102,19 @@ function writeOutputs(dir: string, r: DesignResult, spec: Spec, args: DesignArgs
       ...d.evaluations.flatMap((e) => [e.achieved ?? NaN, e.residual]), d.criticalMargin, file]));
   }
   writeFileAtomic(join(dir, 'ranking.csv'), `${rows.join('\n')}\n`);
+  // Designs of an earlier, longer ranking in the same folder would read as part of this one.
+  for (const name of readdirSync(dir)) {
+    const m = /^design-(\d+)\.yaml$/.exec(name);
+    if (m && Number(m[1]) > r.designs.length) rmSync(join(dir, name), { force: true });
+  }
 }
 
 export async function runDesign(args: DesignArgs): Promise<Outcome> {
   let locate: ((f: string) => number | undefined) | undefined;
   const bar = progressBar('design');
   try {
-    for (const [name, v, min] of [['--starts', args.starts, 1], ['--top', args.top, 1], ['--workers', args.workers, 1], ['--evaluations', args.evaluations, 10]] as const) {
-      if (v !== undefined && (!Number.isInteger(v) || v < min)) throw new InputError('bad-value', `${name}: must be a whole number ≥ ${min}, got ${v}`);
+    for (const [name, v, min, max] of [['--starts', args.starts, 1, 100_000], ['--top', args.top, 1, 10_000], ['--workers', args.workers, 1, 1024], ['--evaluations', args.evaluations, 10, 1_000_000]] as const) {
+      if (v !== undefined && (!Number.isInteger(v) || v < min || v > max)) throw new InputError('bad-value', `${name}: must be a whole number from ${min} to ${max}, got ${v}`);
     }
     if (!Number.isSafeInteger(args.seed) || args.seed < 0) throw new InputError('bad-value', `--seed: must be a whole number ≥ 0, got ${args.seed}`);
     if (!(args.step > 0 && args.step <= 0.1)) throw new InputError('bad-value', `--step: the composition step must lie in (0, 0.1], got ${args.step}`);

@@ -4,6 +4,7 @@ import { formatFormula, parseFormula, resolveMaterial } from '../../materials/in
 import type { ResolvedMaterial } from '../../materials/types.js';
 import { InputError } from '../errors.js';
 import { parseTemperature } from '../spec/units.js';
+import { MAX_TEMPERATURE_K } from '../structure.js';
 import { failure, success, type Outcome } from './exit.js';
 import { fixed, table, toJson } from './format.js';
 
@@ -41,7 +42,7 @@ export function runMaterials(args: MaterialsArgs): Outcome {
   try {
     const t = parseTemperature(args.temperature);
     if (typeof t === 'string') throw new InputError('bad-value', `--temperature: ${t}`);
-    if (!(t >= 0)) throw new InputError('bad-value', `--temperature: must be 0 K or above, got ${args.temperature}`);
+    if (!(t >= 0) || t > MAX_TEMPERATURE_K) throw new InputError('bad-value', `--temperature: must lie between 0 and ${MAX_TEMPERATURE_K} K (the range of the Varshni fits), got ${args.temperature}`);
     const substrate = args.on === undefined ? null : parseFormula(args.on);
     if (args.formula === undefined) {
       const all = Object.keys(BINARIES).map((name) => resolveMaterial(parseFormula(name), { temperature_K: t, substrate }));

@@ -11,7 +11,11 @@ export function writeFileAtomic(path: string, text: string): void {
     writeFileSync(tmp, text);
     renameSync(tmp, path);
   } catch (e) {
-    rmSync(tmp, { force: true });
+    try {
+      rmSync(tmp, { force: true });
+    } catch {
+      // The folder itself is unusable (a file in its place, no permission): nothing was written.
+    }
     const code = (e as NodeJS.ErrnoException).code;
     throw new InputError('io', `cannot write "${path}"${code ? ` (${code})` : ''}; check that the folder is writable`);
   }

@@ -3,6 +3,7 @@ import { basename, dirname, extname, join } from 'node:path';
 import { bandDiagramSvg, buildReport, growthCsv, loadReportInput, toleranceReport, type ReportInput } from '../report/index.js';
 import { nominalVariables } from '../structure.js';
 import { DEFAULT_TOLERANCE } from '../tolerance/analyse.js';
+import { WIRE_TOLERANCE_MESSAGE } from '../tolerance/measure.js';
 import { loadSpecFile } from '../spec/load.js';
 import { solve } from '../solve.js';
 import { runSolve, type SolveArgs } from './solve.js';
@@ -37,6 +38,7 @@ function exitOf(input: ReportInput): number {
  * spec's input is scored; a recorded result has no spec to perturb).
  */
 async function withTolerance(input: ReportInput, args: ReportArgs): Promise<ReportInput> {
+  if (input.kind === 'wire') throw new InputError('bad-value', `--tolerance: ${WIRE_TOLERANCE_MESSAGE}`, 'tolerance');
   if (input.kind !== 'solve' || input.scored === null) {
     throw new InputError('bad-value', `--tolerance: ${args.input} is not a spec with targets; give such a spec or a design-N.yaml written by "wellsmith design --out" (report "wellsmith tolerance --json" output without --tolerance)`, 'tolerance');
   }
@@ -79,8 +81,8 @@ export async function runSolvePlot(args: SolveArgs, plot: string): Promise<Outco
     if (extname(plot).toLowerCase() !== '.svg') throw new InputError('bad-value', `--plot: the band diagram is written as SVG, got "${plot}"; give a file name ending in .svg`);
     const loaded = loadSpecFile(args.spec);
     locate = loaded.locate;
+    if (loaded.spec.wire !== undefined) throw new InputError('schema', `--plot: ${args.spec} describes a wire; the band diagram is drawn for layer stacks only (report draws the wire's maps)`, 'wire');
     const result = solve(loaded.spec);
-    if ('maps' in result) throw new InputError('schema', `--plot: ${args.spec} describes a wire; the band diagram is drawn for layer stacks only`, 'wire');
     writeFileAtomic(plot, await bandDiagramSvg(result));
     return { ...outcome, stderr: `${outcome.stderr}band diagram written to ${plot}\n` };
   } catch (e) {

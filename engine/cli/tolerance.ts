@@ -75,8 +75,8 @@ export async function runTolerance(args: ToleranceArgs): Promise<Outcome> {
   let locate: ((f: string) => number | undefined) | undefined;
   const bar = progressBar('tolerance');
   try {
-    for (const [name, v, min] of [['--samples', args.samples, 0], ['--workers', args.workers, 1]] as const) {
-      if (!Number.isInteger(v) || v < min) throw new InputError('bad-value', `${name}: must be a whole number ≥ ${min}, got ${v}`);
+    for (const [name, v, min, max] of [['--samples', args.samples, 0, 10_000_000], ['--workers', args.workers, 1, 1024]] as const) {
+      if (!Number.isInteger(v) || v < min || v > max) throw new InputError('bad-value', `${name}: must be a whole number from ${min} to ${max}, got ${v}`);
     }
     if (!Number.isSafeInteger(args.seed) || args.seed < 0) throw new InputError('bad-value', `--seed: must be a whole number ≥ 0, got ${args.seed}`);
     for (const [name, v, max] of [['--dx', args.dx, 0.2], ['--rate', args.rate, 20], ['--dT', args.dT, 100], ['--x-sigma', args.xSigma, 0.1], ['--rate-sigma', args.rateSigma, 20]] as const) {

@@ -8,6 +8,7 @@ import { existsSync, statSync } from 'node:fs';
 import { join } from 'node:path';
 import type { TopLevelSpec } from 'vega-lite';
 import { fixed, sig } from '../cli/format.js';
+import { InputError } from '../errors.js';
 import { RunStore, STORE_FILE, type JobRecord } from '../store/store.js';
 import type { SolveResult } from '../solve.js';
 import type { Spec } from '../spec/schema.js';
@@ -75,10 +76,15 @@ interface JobRow extends JobRecord {
 function jobOf(row: JobRow, best: { loss: number; satisfied: number; result_json: string } | undefined): CampaignJob {
   const base = { index: row.idx, name: row.name, state: row.state, status: row.status, message: row.message, evaluations: row.evaluations };
   if (!best) return { ...base, loss: null, satisfied: null, targets: [], transition: [] };
-  const spec = JSON.parse(row.spec_json) as Spec;
-  const targets = compileTargets(spec.targets, spec.wire !== undefined ? 'wire' : 'stack');
-  const result = JSON.parse(best.result_json, reviveNumbers) as SolveResult;
-  return { ...base, loss: best.loss, satisfied: best.satisfied === 1, targets: scoreTargets(targets, result).evaluations, transition: targets.map((t) => t.objective.kind === 'transition') };
+  try {
+    const spec = JSON.parse(row.spec_json) as Spec;
+    const targets = compileTargets(spec.targets, spec.wire !== undefined ? 'wire' : 'stack');
+    const result = JSON.parse(best.result_json, reviveNumbers) as SolveResult;
+    return { ...base, loss: best.loss, satisfied: best.satisfied === 1, targets: scoreTargets(targets, result).evaluations, transition: targets.map((t) => t.objective.kind === 'transition') };
+  } catch (e) {
+    if (e instanceof InputError) throw e;
+    throw new InputError('schema', `run store job "${row.name}": its stored spec or best design is not readable (${e instanceof Error ? e.message : String(e)}); the store is damaged — rerun that job into a fresh folder`);
+  }
 }
 
 /**

@@ -44,7 +44,12 @@ function resolveRecorded(v: Record<string, unknown>, where: string): SolveResult
   if (!isRecord(v.structure) || !Array.isArray(v.structure.layers) || !isRecord(v.settings)) {
     throw new InputError('schema', `${where}: a recorded result needs "structure" (with "layers") and "settings", as "wellsmith solve --json" writes them; regenerate the file`);
   }
-  return solveStructure(v.structure as unknown as Structure, v.settings as unknown as SolverSettings);
+  try {
+    return solveStructure(v.structure as unknown as Structure, v.settings as unknown as SolverSettings);
+  } catch (e) {
+    if (e instanceof InputError) throw e;
+    throw new InputError('schema', `${where}: the recorded structure cannot be solved again (${e instanceof Error ? e.message : String(e)}); regenerate the file with "wellsmith solve --json"`);
+  }
 }
 
 /** A report input from a spec already loaded. */

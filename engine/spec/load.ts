@@ -100,7 +100,14 @@ export function parseYamlText(text: string, origin: string): { readonly value: u
     const line = e.linePos?.[0]?.line;
     throw new InputError('parse', `${origin}: not valid YAML/JSON${line ? ` at line ${line}` : ''}: ${(e.message.split('\n')[0] ?? '').replace(/ at line \d+, column \d+:?$/, '')}`);
   }
-  return { value: doc.toJS({ maxAliasCount: 100 }) as unknown, locate: locator(doc, lines) };
+  let value: unknown;
+  try {
+    value = doc.toJS({ maxAliasCount: 100 });
+  } catch (e) {
+    // yaml refuses documents whose aliases expand beyond maxAliasCount (an "alias bomb").
+    throw new InputError('parse', `${origin}: not usable YAML: ${e instanceof Error ? e.message.split('\n')[0] : String(e)}; write the values out instead of nesting aliases`);
+  }
+  return { value, locate: locator(doc, lines) };
 }
 
 /** Parses spec text (YAML, of which JSON is a subset). */

@@ -106,7 +106,14 @@ export class RunStore {
     const exists = existsSync(path);
     if (exists) checkExisting(path);
     else if (!create || readonly) throw new InputError('io', `no run store at "${path}"; give the --out folder of a campaign run`);
-    else mkdirSync(dirname(path), { recursive: true });
+    else {
+      try {
+        mkdirSync(dirname(path), { recursive: true });
+      } catch (e) {
+        const code = (e as NodeJS.ErrnoException).code;
+        throw new InputError('io', `cannot create the run folder "${dirname(path)}"${code ? ` (${code})` : ''}; give --out a folder you can write`);
+      }
+    }
     if (readonly) return new RunStore(path, new Database(path, { readonly: true, fileMustExist: true }));
     const db = new Database(path);
     db.pragma('journal_mode = WAL');
