@@ -6,12 +6,11 @@
  * (used for sharding) and its spec hash are the same on every machine.
  */
 import { createHash } from 'node:crypto';
-import { readFileSync } from 'node:fs';
 import { dirname, resolve } from 'node:path';
 import { z } from 'zod';
 import { InputError } from '../errors.js';
 import { DEFAULT_DESIGN_OPTIONS, type DesignOptions } from '../design/search.js';
-import { describeIssue, fieldName, fieldPath, parseYamlText, validateSpec } from '../spec/load.js';
+import { describeIssue, fieldName, fieldPath, parseYamlText, readInputText, validateSpec } from '../spec/load.js';
 import type { Spec } from '../spec/schema.js';
 import { splitQuantity } from '../spec/units.js';
 
@@ -170,14 +169,6 @@ export function expandCampaign(file: CampaignFile, baseSpec: unknown, origin: st
   return { title: file.title ?? origin, origin, jobs, hash: hash16(jobs.map((j) => `${j.name}:${j.hash}`).join('\n')) };
 }
 
-function readText(path: string, what: string): string {
-  try {
-    return readFileSync(path, 'utf8');
-  } catch (e) {
-    const code = (e as NodeJS.ErrnoException).code;
-    throw new InputError('io', `cannot read ${what} "${path}"${code === 'ENOENT' ? ': no such file' : code ? ` (${code})` : ''}; check the path`);
-  }
-}
 
 /** Parses campaign text (YAML or JSON); `dir` resolves a base spec given as a path. */
 export function parseCampaignText(text: string, origin: string, dir: string): Campaign {
@@ -191,7 +182,7 @@ export function parseCampaignText(text: string, origin: string, dir: string): Ca
   }
   if (typeof r.data.spec === 'string') {
     const specPath = resolve(dir, r.data.spec);
-    const base = parseYamlText(readText(specPath, 'base spec'), specPath);
+    const base = parseYamlText(readInputText(specPath, 'base spec'), specPath);
     return expandCampaign(r.data, base.value, origin);
   }
   return expandCampaign(r.data, r.data.spec, origin, locate);
@@ -199,5 +190,5 @@ export function parseCampaignText(text: string, origin: string, dir: string): Ca
 
 /** Reads a campaign file. */
 export function loadCampaignFile(path: string): Campaign {
-  return parseCampaignText(readText(path, 'campaign file'), path, dirname(resolve(path)));
+  return parseCampaignText(readInputText(path, 'campaign file'), path, dirname(resolve(path)));
 }

@@ -6,9 +6,8 @@
  * that --json leaves out), or the JSON of `wellsmith tolerance --json` (its summary only), or a
  * campaign's run store (engine/report/campaign.ts).
  */
-import { readFileSync } from 'node:fs';
 import { InputError } from '../errors.js';
-import { parseSpecText, type LoadedSpec } from '../spec/load.js';
+import { parseSpecText, readInputText, type LoadedSpec } from '../spec/load.js';
 import { solve, solveStructure, type SolveResult, type SolverSettings } from '../solve.js';
 import type { Structure } from '../structure.js';
 import { compileTargets, scoreTargets, type Scored } from '../../objectives/index.js';
@@ -99,12 +98,5 @@ export function inputFromText(text: string, origin: string): ReportInput {
 /** Reads a report input: a run folder or its campaign.sqlite (read only), or a file (spec, solve/design/tolerance --json). */
 export function loadReportInput(path: string): ReportInput {
   if (isRunStorePath(path)) return { kind: 'campaign', origin: path, report: readCampaign(path) };
-  let text: string;
-  try {
-    text = readFileSync(path, 'utf8');
-  } catch (e) {
-    const code = (e as NodeJS.ErrnoException).code;
-    throw new InputError('io', `cannot read report input "${path}"${code === 'ENOENT' ? ': no such file' : code ? ` (${code})` : ''}; check the path`);
-  }
-  return inputFromText(text, path);
+  return inputFromText(readInputText(path, 'report input (a spec, a --json output, or a campaign run folder)'), path);
 }

@@ -119,14 +119,18 @@ export function parseSpecText(text: string, origin = '<inline>'): LoadedSpec {
   return { spec: validateSpec(value, locate), origin, locate };
 }
 
-/** Reads and parses a spec file. */
-export function loadSpecFile(path: string): LoadedSpec {
-  let text: string;
+/** Reads a text input (spec, campaign file, report input); a failure is one input-error line naming the file. */
+export function readInputText(path: string, what: string): string {
   try {
-    text = readFileSync(path, 'utf8');
+    return readFileSync(path, 'utf8');
   } catch (e) {
     const code = (e as NodeJS.ErrnoException).code;
-    throw new InputError('io', `cannot read spec file "${path}"${code === 'ENOENT' ? ': no such file' : code ? ` (${code})` : ''}; check the path`);
+    const why = code === 'ENOENT' ? ': no such file' : code === 'EISDIR' ? ': it is a folder' : code ? ` (${code})` : '';
+    throw new InputError('io', `cannot read ${what} "${path}"${why}; check the path`);
   }
-  return parseSpecText(text, path);
+}
+
+/** Reads and parses a spec file. */
+export function loadSpecFile(path: string): LoadedSpec {
+  return parseSpecText(readInputText(path, 'spec file'), path);
 }
