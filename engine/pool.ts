@@ -24,7 +24,7 @@ function unwrap(r: WorkerResponse): WorkerResult {
 /** A thread takes roughly this long to load the engine here (0.1–0.3 s measured on 2 cores), before its JIT warms up. */
 const THREAD_START_DELAY_MS = 300;
 /** Threads are started only when, at this thread's pace so far, more than this much work remains: less would not repay loading and warming them up. */
-const MIN_REMAINING_FOR_THREADS_MS = 1000;
+const MIN_REMAINING_FOR_THREADS_MS = 500;
 
 type Pool = import('piscina').Piscina<WorkerTask, WorkerResponse>;
 
@@ -54,6 +54,9 @@ function threadPool(Piscina: typeof import('piscina').Piscina, threads: number):
     execArgv: isTs ? ['--import', import.meta.resolve('tsx')] : [],
     minThreads: threads,
     maxThreads: threads,
+    // Tasks are synchronous, so a second task sent ahead waits inside the thread and starts the
+    // moment the first ends, instead of waiting for this thread to pause and hand it over.
+    concurrentTasksPerWorker: 2,
   });
   shared = { threads, pool, loaded: undefined };
   return pool;
