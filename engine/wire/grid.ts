@@ -5,16 +5,10 @@
  * Envelopes are restricted to the coarsest of the finest grids (and renormalised there) so
  * overlaps and maps compare like with like. Lengths nm, envelopes 1/nm.
  */
-import type { CrossSectionBox } from '../solver2d.js';
+import type { CrossSectionBox, CrossSectionGrid } from '../solver2d.js';
 
 /** The grid of the |ψ|² maps: node (i, j) at (x0 + i·dx, y0 + j·dy), index i + nx·j. */
-export interface MapGrid {
-  readonly nx: number;
-  readonly ny: number;
-  readonly dx_nm: number;
-  readonly dy_nm: number;
-  readonly x0_nm: number;
-  readonly y0_nm: number;
+export interface MapGrid extends Pick<CrossSectionGrid, 'nx' | 'ny' | 'dx_nm' | 'dy_nm' | 'x0_nm' | 'y0_nm'> {
   /** Material index at each node (0 = barrier; order as in structure.materials). */
   readonly material: readonly number[];
 }

@@ -5,7 +5,7 @@ import fc from 'fast-check';
 import { describe, expect, it } from 'vitest';
 import { InputError } from '../../engine/errors.js';
 import { alloyFromName, formatFormula, parseFormula, type Alloy } from '../../materials/index.js';
-import { expectClose } from './check.js';
+import { expectClose, expectInputError } from './check.js';
 
 function expectAlloy(got: Alloy, want: Alloy, input: string): void {
   for (const side of ['III', 'V'] as const) {
@@ -66,16 +66,6 @@ describe('formatFormula', () => {
     }), { numRuns: 200 });
   });
 });
-
-function expectInputError(run: () => unknown, code: string, pattern: RegExp): void {
-  let caught: unknown;
-  try { run(); } catch (e) { caught = e; }
-  expect(caught, 'expected an InputError').toBeInstanceOf(InputError);
-  const err = caught as InputError;
-  expect(err.code).toBe(code);
-  expect(err.message).toMatch(pattern);
-  expect(err.message.includes('\n'), `one line: ${err.message}`).toBe(false);
-}
 
 describe('bad input', () => {
   it('unknown element', () => expectInputError(() => parseFormula('Xy0.3Ga0.7As'), 'bad-formula', /unknown element "Xy"/));

@@ -4,7 +4,7 @@
 import { describe, expect, it } from 'vitest';
 import { InputError } from '../../engine/errors.js';
 import { customMaterial, parseFormula, resolveMaterial, type Alloy } from '../../materials/index.js';
-import { expectClose } from './check.js';
+import { expectClose, expectInputError } from './check.js';
 
 const GaAs = parseFormula('GaAs');
 const at = (a: Alloy, T: number, substrate: Alloy | null = null) => resolveMaterial(a, { temperature_K: T, substrate });
@@ -51,16 +51,6 @@ describe('valleys', () => {
     expect(m.lowestValley).toBe('Γ');
   });
 });
-
-function expectInputError(run: () => unknown, code: string, pattern: RegExp): void {
-  let caught: unknown;
-  try { run(); } catch (e) { caught = e; }
-  expect(caught, 'expected an InputError').toBeInstanceOf(InputError);
-  const err = caught as InputError;
-  expect(err.code).toBe(code);
-  expect(err.message).toMatch(pattern);
-  expect(err.message.includes('\n'), `one line: ${err.message}`).toBe(false);
-}
 
 describe('bad input', () => {
   it('negative temperature', () => expectInputError(() => at(GaAs, -5), 'bad-value', /temperature: .*got -5/));

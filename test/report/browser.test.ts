@@ -8,20 +8,10 @@ import { buildReport, inputFromText, loadReportInput, toleranceReport, type Repo
 import { parseSpecText } from '../../engine/spec/load.js';
 import { nominalVariables } from '../../engine/structure.js';
 import { DEFAULT_TOLERANCE } from '../../engine/tolerance/analyse.js';
-import { WELL_SPEC } from './well-spec.js';
+import { WELL_SPEC, WIRE_SPEC } from './well-spec.js';
 import { referenceRun, tempDir, tinyCampaign } from '../campaign/helpers.js';
 
 const CHROMIUM = '/usr/bin/chromium';
-// A small, coarse rectangular GaAs wire in Al0.3Ga0.7As: fast to solve.
-const WIRE_SPEC = `
-substrate: GaAs
-wire:
-  barrier: Al0.3Ga0.7As
-  shape: { kind: rectangle, material: GaAs, width: 8 nm, height: 5 nm }
-  grid: 1 nm
-  margin: 4 nm
-  states: 2
-`;
 const ARTIFACTS = resolve('test-artifacts');
 
 /** Opens each page in headless chromium: no console error, and the expected number of plots, all of non-zero size. */

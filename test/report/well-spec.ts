@@ -12,3 +12,14 @@ growth:
 targets:
   - { transition: e1-hh1, wavelength: 820 nm, within: 20 nm }
 `;
+
+/** A small, coarse rectangular GaAs wire in Al0.3Ga0.7As: fast to solve. */
+export const WIRE_SPEC = `
+substrate: GaAs
+wire:
+  barrier: Al0.3Ga0.7As
+  shape: { kind: rectangle, material: GaAs, width: 8 nm, height: 5 nm }
+  grid: 1 nm
+  margin: 4 nm
+  states: 2
+`;

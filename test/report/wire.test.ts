@@ -3,16 +3,8 @@ import { mkdtempSync, readFileSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { cli } from '../../engine/cli/app.js';
+import { WIRE_SPEC } from './well-spec.js';
 
-const WIRE_SPEC = `
-substrate: GaAs
-wire:
-  barrier: Al0.3Ga0.7As
-  shape: { kind: rectangle, material: GaAs, width: 8 nm, height: 5 nm }
-  grid: 1 nm
-  margin: 4 nm
-  states: 2
-`;
 
 describe('wire report', () => {
   it('reports solve --json --maps output and refuses it without the maps', async () => {
