@@ -11,7 +11,7 @@ import type { Spec } from './spec/schema.js';
 import { parseLength, parseSheetDensity } from './spec/units.js';
 import { quasiFermiLevels } from './observables/carriers.js';
 import { InputError } from './errors.js';
-import { dipoleNm, oscillatorStrength, overlap2 } from './observables/matrix-elements.js';
+import { dipoleNm, oscillatorStrength, overlap2, weightedGrid } from './observables/matrix-elements.js';
 import { stepHeight2d } from './observables/dos.js';
 
 export const BANDS: readonly BandName[] = ['electron', 'heavy_hole', 'light_hole'];
@@ -240,6 +240,7 @@ export function solveStructure(structure: Structure, settings: SolverSettings = 
   }
 
   const transitions: TransitionResult[] = [];
+  const grid = sample ? weightedGrid(z) : undefined;
   const photon = (dE: number): Pick<TransitionResult, 'energy_eV' | 'wavelength_nm' | 'wavenumber_per_cm'> => ({
     energy_eV: dE, wavelength_nm: HC_EV_NM / dE, wavenumber_per_cm: wavenumberPerCm(dE),
   });
@@ -247,17 +248,17 @@ export function solveStructure(structure: Structure, settings: SolverSettings = 
   for (const hole of ['heavy_hole', 'light_hole'] as const) {
     for (const [i, e] of electrons.entries()) {
       for (const [j, h] of bands[hole].states.entries()) {
-        transitions.push({ label: `${e.label}-${h.label}`, kind: 'interband', ...photon(e.energy_eV - h.energy_eV), overlap2: sample ? overlap2(psi.electron[i]!, psi[hole][j]!, z) : NaN });
+        transitions.push({ label: `${e.label}-${h.label}`, kind: 'interband', ...photon(e.energy_eV - h.energy_eV), overlap2: grid ? overlap2(psi.electron[i]!, psi[hole][j]!, grid) : NaN });
       }
     }
   }
   for (let i = 0; i < electrons.length; i++) {
     for (let j = i + 1; j < electrons.length; j++) {
       const dE = electrons[j]!.energy_eV - electrons[i]!.energy_eV;
-      const d = sample ? dipoleNm(psi.electron[i]!, psi.electron[j]!, z) : NaN;
+      const d = grid ? dipoleNm(psi.electron[i]!, psi.electron[j]!, grid) : NaN;
       transitions.push({
         label: `${electrons[i]!.label}-${electrons[j]!.label}`, kind: 'intersubband', ...photon(dE),
-        overlap2: sample ? overlap2(psi.electron[i]!, psi.electron[j]!, z) : NaN, dipole_nm: d,
+        overlap2: grid ? overlap2(psi.electron[i]!, psi.electron[j]!, grid) : NaN, dipole_nm: d,
         oscillator_strength: sample ? oscillatorStrength(dE, d, electrons[i]!.mass_inplane) : NaN,
       });
     }

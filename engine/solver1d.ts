@@ -70,6 +70,11 @@ const SCALED_EVANESCENT = 20;
 const BIG = 1e150;
 const SMALL = 1e-150;
 const DEFAULT_TOLERANCE = 1e-12;
+/** Closed forms of ψ inside a slice, for sampling (see wavefunction). */
+const OSCILLATORY = 1;
+const SHORT_EVANESCENT = 2;
+const LONG_EVANESCENT = 3;
+const FLAT = 0;
 
 /** The profile unpacked into flat arrays once per call, so the sweeps read no objects. */
 interface Unpacked {
@@ -580,8 +585,42 @@ export function wavefunction(profile: BandProfile, energy: number, z_nm: Float64
   for (let k = 0; k < n + 2; k++) norm += pieceI[k]! * Math.exp(2 * (pieceE[k]! - eMax));
   const inv = 1 / Math.sqrt(norm);
 
+  // Each slice's ψ in closed form with its log scale and the norm folded in, so a grid point costs
+  // one or two elementary functions: R cos(kx − φ) where oscillatory, P e^{κx} + Q e^{−κx} where
+  // short and evanescent, P e^{−κx} + Q e^{−κ(L−x)} where long, a + b x where flat.
+  const kind = new Uint8Array(n);
+  const kk = new Float64Array(n);
+  const c0 = new Float64Array(n);
+  const c1 = new Float64Array(n);
+  for (let i = 0; i < n; i++) {
+    const fromA = i < jStar;
+    const s = ss[i]!;
+    const L = width[i]!;
+    const a = value(fromA, i) * Math.exp(scale(fromA, i) - eMax) * inv;
+    const b = ms[i]! * slope(fromA, i) * Math.exp(scale(fromA, i) - eMax) * inv;
+    if (s > 0) {
+      const k = Math.sqrt(s);
+      kind[i] = OSCILLATORY; kk[i] = k; c0[i] = Math.hypot(a, b / k); c1[i] = Math.atan2(b / k, a);
+    } else if (s < 0 && Math.sqrt(-s) * L >= 1) {
+      // Two-point form u(x) = [u0 sinh κ(L − x) + u1 sinh κx]/sinh κL = P e^{−κx} + Q e^{−κ(L−x)},
+      // P = (u0 − u1 e^{−κL})/(1 − e^{−2κL}), Q = (u1 − u0 e^{−κL})/(1 − e^{−2κL}): no growing exponential.
+      const kap = Math.sqrt(-s);
+      const d = Math.exp(-kap * L);
+      const q = 1 - d * d;
+      const u0 = value(fromA, i) * Math.exp(scale(fromA, i) - eMax) * inv;
+      const u1 = value(fromA, i + 1) * Math.exp(scale(fromA, i + 1) - eMax) * inv;
+      kind[i] = LONG_EVANESCENT; kk[i] = kap; c0[i] = (u0 - u1 * d) / q; c1[i] = (u1 - u0 * d) / q;
+    } else if (s < 0) {
+      const kap = Math.sqrt(-s);
+      kind[i] = SHORT_EVANESCENT; kk[i] = kap; c0[i] = 0.5 * (a + b / kap); c1[i] = 0.5 * (a - b / kap);
+    } else {
+      kind[i] = FLAT; c0[i] = a; c1[i] = b;
+    }
+  }
+
   const psi = new Float64Array(z_nm.length);
   const zEnd = edge[n]!;
+  let i = 0;
   for (let g = 0; g < z_nm.length; g++) {
     const z = z_nm[g]!;
     if (z <= 0) {
@@ -592,31 +631,24 @@ export function wavefunction(profile: BandProfile, energy: number, z_nm: Float64
       psi[g] = value(n < jStar, n) * Math.exp(-kR * (z - zEnd) + scale(n < jStar, n) - eMax) * inv;
       continue;
     }
-    let lo = 0;
-    let hi = n;
-    while (hi - lo > 1) {
-      const mid = (lo + hi) >> 1;
-      if (edge[mid]! <= z) lo = mid;
-      else hi = mid;
+    // Grids are usually ascending: keep the slice of the previous point while it still holds z.
+    if (!(z >= edge[i]! && z < edge[i + 1]!)) {
+      let lo = 0;
+      let hi = n;
+      while (hi - lo > 1) {
+        const mid = (lo + hi) >> 1;
+        if (edge[mid]! <= z) lo = mid;
+        else hi = mid;
+      }
+      i = lo;
     }
-    const i = lo;
-    const fromA = i < jStar;
     const x = z - edge[i]!;
-    const L = width[i]!;
-    const s = ss[i]!;
-    const e0 = scale(fromA, i);
-    if (s < 0 && Math.sqrt(-s) * L >= 1) {
-      const e1 = scale(fromA, i + 1);
-      const kap = Math.sqrt(-s);
-      const y = kap * L;
-      const q = 1 - Math.exp(-2 * y);
-      // sinh(κa)/sinh(κL) = e^{−κ(L−a)} (1 − e^{−2κa}) / (1 − e^{−2κL}), with the log scales folded in.
-      const wLeft = (-Math.expm1(-2 * kap * (L - x)) / q) * Math.exp(-kap * x + e0 - eMax);
-      const wRight = (-Math.expm1(-2 * kap * x) / q) * Math.exp(-kap * (L - x) + e1 - eMax);
-      psi[g] = (value(fromA, i) * wLeft + value(fromA, i + 1) * wRight) * inv;
-    } else {
-      const u = value(fromA, i) * cFun(s, x) + ms[i]! * slope(fromA, i) * sFun(s, x);
-      psi[g] = u * Math.exp(e0 - eMax) * inv;
+    const k = kk[i]!;
+    switch (kind[i]) {
+      case OSCILLATORY: psi[g] = c0[i]! * Math.cos(k * x - c1[i]!); break;
+      case SHORT_EVANESCENT: { const e = Math.exp(k * x); psi[g] = c0[i]! * e + c1[i]! / e; break; }
+      case LONG_EVANESCENT: psi[g] = c0[i]! * Math.exp(-k * x) + c1[i]! * Math.exp(-k * (width[i]! - x)); break;
+      default: psi[g] = c0[i]! + c1[i]! * x;
     }
   }
   return psi;

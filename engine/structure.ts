@@ -324,9 +324,42 @@ export function perturbComposition(c: LayerComposition, dx: number): LayerCompos
   return e ? { kind: 'graded', from: shiftWith(c.from, e, dx), to: shiftWith(c.to, e, dx) } : c;
 }
 
+/** A layer's composition, material and band samples: everything of it but its thickness. */
+interface LayerPart {
+  readonly composition: LayerComposition;
+  readonly formula: string;
+  readonly material: ResolvedMaterial;
+  readonly bands: readonly LayerBands[];
+}
+
+/**
+ * What a search rebuilds thousands of times unchanged, computed once per spec: its free variables
+ * and the parts of layers whose composition names no variable (keyed by layer and temperature,
+ * which a tolerance run perturbs). Specs are immutable values, so the cache is keyed on the object
+ * and goes with it.
+ */
+interface SpecCache {
+  readonly vars: readonly VariableInfo[];
+  readonly parts: Map<string, LayerPart>;
+}
+const specCaches = new WeakMap<Spec, SpecCache>();
+function cacheOf(spec: Spec): SpecCache {
+  let c = specCaches.get(spec);
+  if (!c) {
+    c = { vars: variablesOf(spec), parts: new Map() };
+    specCaches.set(spec, c);
+  }
+  return c;
+}
+
+/** Whether a layer's composition depends on a free variable (a fraction that names one). */
+const namesVariable = (layer: LayerSpec): boolean =>
+  Object.keys(layer).some((k) => !RESERVED.has(k) && typeof (layer as Record<string, unknown>)[k] === 'string');
+
 /** Builds the Structure of a spec at the given variable values, optionally with growth errors. */
 export function buildStructure(spec: Spec, values: Readonly<Record<string, number>>, perturbation: Perturbation = {}): Structure {
-  const vars = variablesOf(spec);
+  const cache = cacheOf(spec);
+  const vars = cache.vars;
   const nominalT = num(spec.temperature, parseTemperature, 'temperature', 300);
   const temperature_K = nominalT + (perturbation.temperature_K ?? 0);
   if (!(temperature_K >= 0) || !Number.isFinite(temperature_K)) throw new InputError('bad-value', `temperature: must be 0 K or above, got ${spec.temperature}; give it in K, e.g. "300 K"`, 'temperature');
@@ -369,15 +402,26 @@ export function buildStructure(spec: Spec, values: Readonly<Record<string, numbe
     return { material: m, bands: { Ec, Ehh, Elh, me: m.me, mhh_z: m.mhh_z, mlh_z: m.mlh_z, mhh_par: m.mhh_par, mlh_par: m.mlh_par, alpha } };
   };
 
-  let total = 0;
-  const layers = spec.stack.map((layer, i): ResolvedLayer => {
+  const partOf = (layer: LayerSpec, i: number, dx: number): LayerPart => {
     const field = `stack[${i}]`;
-    const composition = perturbComposition(compositionOf(layer, i, ctx), perturbation.composition?.[i] ?? 0);
+    const composition = perturbComposition(compositionOf(layer, i, ctx), dx);
     const mid = composition.kind === 'custom' ? composition.name : composition.kind === 'alloy' ? composition.alloy : mixAlloys(composition.from, composition.to, 0.5);
     const centre = bandsOf(mid, `${field}.material`);
     const bands = composition.kind === 'graded'
       ? Array.from({ length: GRADE_SAMPLES }, (_, k) => bandsOf(mixAlloys(composition.from, composition.to, k / (GRADE_SAMPLES - 1)), `${field}.material`).bands)
       : [centre.bands];
+    const formula = composition.kind === 'graded' ? `${formatFormula(composition.from)}→${formatFormula(composition.to)}` : centre.material.formula;
+    return { composition, formula, material: centre.material, bands };
+  };
+
+  let total = 0;
+  const layers = spec.stack.map((layer, i): ResolvedLayer => {
+    const field = `stack[${i}]`;
+    const dx = perturbation.composition?.[i] ?? 0;
+    let part: LayerPart;
+    if (dx !== 0 || namesVariable(layer)) part = partOf(layer, i, dx);
+    else part = memo(cache.parts, `${i}@${temperature_K}`, () => partOf(layer, i, 0));
+    const { composition, formula, material, bands } = part;
 
     let length: Length;
     const t = layer.thickness;
@@ -391,7 +435,7 @@ export function buildStructure(spec: Spec, values: Readonly<Record<string, numbe
       if (typeof parsed === 'string') throw new InputError('bad-value', `${field}.thickness: ${parsed}, or the name of a vary variable`, `${field}.thickness`);
       length = parsed;
     }
-    const ml = centre.material.monolayer_nm;
+    const ml = material.monolayer_nm;
     const dML = perturbation.thickness_ML?.[i] ?? 0;
     if (('ml' in length || dML !== 0) && !(ml > 0)) {
       throw new InputError('bad-value', `${field}.thickness: a thickness in monolayers needs the material's lattice constant; give materials.${layer.material}.lattice or the thickness in nm`, `${field}.thickness`);
@@ -401,7 +445,6 @@ export function buildStructure(spec: Spec, values: Readonly<Record<string, numbe
     if (thickness_nm < MIN_LAYER_NM) throw new InputError('bad-value', `${field}.thickness: ${JSON.stringify(t)} is thinner than ${MIN_LAYER_NM} nm (a tenth of a monolayer); check the unit`, `${field}.thickness`);
     total += thickness_nm;
     if (total > MAX_TOTAL_NM) throw new InputError('bad-value', `${field}.thickness: the stack reaches ${total.toPrecision(4)} nm, above the ${MAX_TOTAL_NM / 1000} µm an envelope-function solve handles here; model only the active region (the outer layers continue outwards)`, `${field}.thickness`);
-    const formula = composition.kind === 'custom' ? composition.name : composition.kind === 'alloy' ? formatFormula(composition.alloy) : `${formatFormula(composition.from)}→${formatFormula(composition.to)}`;
     return {
       index: i,
       label: layer.label ?? `layer ${i + 1}`,
@@ -410,7 +453,7 @@ export function buildStructure(spec: Spec, values: Readonly<Record<string, numbe
       thickness_nm,
       monolayers: ml > 0 ? thickness_nm / ml : NaN,
       monolayer_nm: ml,
-      material: centre.material,
+      material,
       bands,
     };
   });

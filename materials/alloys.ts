@@ -110,6 +110,35 @@ export function alloyParams(alloy: Alloy): BinaryParams {
   return Object.freeze({ name: formatFormula(alloy), ...interpolate(alloy, identity) });
 }
 
+/**
+ * The view of the binaries at T: gaps by Varshni, lattice constant at T, the rest as tabulated.
+ * Memoised per temperature, since a search resolves the same few binaries at one T thousands of
+ * times; the table holds a handful of temperatures (a tolerance run adds ±ΔT) and is cleared past 64.
+ */
+const views = new Map<number, View>();
+function viewAt(T: number): View {
+  let view = views.get(T);
+  if (view) return view;
+  const seen = new Map<BinaryParams, Values>();
+  view = (p) => {
+    let v = seen.get(p);
+    if (!v) {
+      v = Object.freeze({
+        ...p,
+        a_nm: latticeAt(p, T),
+        EgG0: varshni(p.EgG0, p.alphaG, p.betaG, T),
+        EgX0: varshni(p.EgX0, p.alphaX, p.betaX, T),
+        EgL0: varshni(p.EgL0, p.alphaL, p.betaL, T),
+      });
+      seen.set(p, v);
+    }
+    return v;
+  };
+  if (views.size >= 64) views.clear();
+  views.set(T, view);
+  return view;
+}
+
 /** Alloy parameters at a temperature: gaps (eV) and relaxed lattice constant (nm) at T. */
 export interface AlloyAtT {
   readonly temperature_K: number;
@@ -128,14 +157,7 @@ export interface AlloyAtT {
  * (temperature-independent) bowing as at 0 K. Example: In0.53Ga0.47As at 300 K → EgG ≈ 0.737 eV.
  */
 export function alloyAt(alloy: Alloy, T: number): AlloyAtT {
-  const view: View = (p) => ({
-    ...p,
-    a_nm: latticeAt(p, T),
-    EgG0: varshni(p.EgG0, p.alphaG, p.betaG, T),
-    EgX0: varshni(p.EgX0, p.alphaX, p.betaX, T),
-    EgL0: varshni(p.EgL0, p.alphaL, p.betaL, T),
-  });
-  const v = interpolate(alloy, view);
+  const v = interpolate(alloy, viewAt(T));
   return Object.freeze({
     temperature_K: T, a_nm: v.a_nm, EgG: v.EgG0, EgX: v.EgX0, EgL: v.EgL0,
     Dso: v.Dso, me: v.me, gamma1: v.gamma1, gamma2: v.gamma2, gamma3: v.gamma3,

@@ -202,23 +202,24 @@ export function formatFormula(alloy: Alloy): string {
  * (e.g. "substrate"). Returns the alloy unchanged.
  */
 export function validateAlloy(alloy: Alloy, where: string): Alloy {
-  const text = formatFormulaLoose(alloy);
+  // Only a message needs the text: this check runs at every material resolution of a search.
+  const text = (): string => formatFormulaLoose(alloy);
   for (const [side, label] of [['III', 'group-III'], ['V', 'group-V']] as const) {
     const entries = Object.entries(alloy[side]);
-    if (entries.length === 0) throw new InputError('bad-formula', `${where} "${text}": no ${label} element; give e.g. GaAs`);
+    if (entries.length === 0) throw new InputError('bad-formula', `${where} "${text()}": no ${label} element; give e.g. GaAs`);
     for (const [el, f] of entries) {
       const g = groupOf(el);
-      if (g === null) throw new InputError('bad-formula', `${where} "${text}": unknown element "${el}"; use ${GROUP_III.join(', ')} and ${GROUP_V.join(', ')}`);
-      if (g !== side) throw new InputError('bad-formula', `${where} "${text}": ${g === 'III' ? 'group-III' : 'group-V'} element ${el} on the ${label} side; put it on its own side`);
-      if (!Number.isFinite(f) || f < 0 || f > 1) throw new InputError('bad-formula', `${where} "${text}": fraction of ${el} is ${f}, must lie in [0, 1]`);
+      if (g === null) throw new InputError('bad-formula', `${where} "${text()}": unknown element "${el}"; use ${GROUP_III.join(', ')} and ${GROUP_V.join(', ')}`);
+      if (g !== side) throw new InputError('bad-formula', `${where} "${text()}": ${g === 'III' ? 'group-III' : 'group-V'} element ${el} on the ${label} side; put it on its own side`);
+      if (!Number.isFinite(f) || f < 0 || f > 1) throw new InputError('bad-formula', `${where} "${text()}": fraction of ${el} is ${f}, must lie in [0, 1]`);
     }
     const sum = entries.reduce((a, [, f]) => a + f, 0);
     if (Math.abs(sum - 1) > SUM_TOLERANCE) {
-      throw new InputError('bad-formula', `${where} "${text}": ${label} fractions sum to ${formatFraction(sum)}, must sum to 1`);
+      throw new InputError('bad-formula', `${where} "${text()}": ${label} fractions sum to ${formatFraction(sum)}, must sum to 1`);
     }
   }
   const issue = supportIssue(alloy);
-  if (issue !== null) throw new InputError('unknown-material', `${where} "${text}": ${issue}`);
+  if (issue !== null) throw new InputError('unknown-material', `${where} "${text()}": ${issue}`);
   return alloy;
 }
 

@@ -38,43 +38,57 @@ const checkSamples = (y: ArrayLike<number>, n: number, where: string): void => {
  * @returns the integral in unit(y) · nm.
  */
 export function simpson(y: ArrayLike<number>, z: ArrayLike<number>): number {
-  checkGrid(z, 'simpson');
+  const w = simpsonWeights(z);
   checkSamples(y, z.length, 'simpson.y');
-  return simpsonOf(z, (i) => y[i]);
+  let sum = 0;
+  for (let i = 0; i < w.length; i++) sum += w[i]! * y[i]!;
+  return sum;
 }
 
 /**
- * Composite Simpson of the samples f(0) … f(n−1) on z (see simpson), with the integrand given as
- * an index function so that products such as ψa·ψb·z are integrated without allocating: this is
- * the inner loop of every overlap and dipole, evaluated for every pair of states in a solve.
+ * The weights of composite Simpson on a grid (see simpson): ∫ y dz ≈ Σ w_i y_i. A solve samples
+ * every wavefunction on one grid, so its overlaps and dipoles are dot products with one set of
+ * weights instead of a quadrature each. Checks the grid (finite, strictly increasing, ≥ 3 points).
  */
-const simpsonOf = (z: ArrayLike<number>, f: (i: number) => number): number => {
+export function simpsonWeights(z: ArrayLike<number>): Float64Array {
+  checkGrid(z, 'simpson');
+  const w = new Float64Array(z.length);
   const intervals = z.length - 1;
   const pairs = Math.floor(intervals / 2);
-  let sum = 0;
   for (let p = 0; p < pairs; p++) {
     const i = 2 * p;
-    const h0 = z[i + 1] - z[i];
-    const h1 = z[i + 2] - z[i + 1];
+    const h0 = z[i + 1]! - z[i]!;
+    const h1 = z[i + 2]! - z[i + 1]!;
     const hs = h0 + h1;
-    sum += (hs / 6) * ((2 - h1 / h0) * f(i) + ((hs * hs) / (h0 * h1)) * f(i + 1) + (2 - h0 / h1) * f(i + 2));
+    w[i] += (hs / 6) * (2 - h1 / h0);
+    w[i + 1] += (hs / 6) * ((hs * hs) / (h0 * h1));
+    w[i + 2] += (hs / 6) * (2 - h0 / h1);
   }
   if (intervals % 2 === 1) {
     const n = z.length - 1;
-    const h0 = z[n - 1] - z[n - 2];
-    const h1 = z[n] - z[n - 1];
-    const alpha = (2 * h1 * h1 + 3 * h0 * h1) / (6 * (h0 + h1));
-    const beta = (h1 * h1 + 3 * h0 * h1) / (6 * h0);
-    const eta = (h1 * h1 * h1) / (6 * h0 * (h0 + h1));
-    sum += alpha * f(n) + beta * f(n - 1) - eta * f(n - 2);
+    const h0 = z[n - 1]! - z[n - 2]!;
+    const h1 = z[n]! - z[n - 1]!;
+    w[n] += (2 * h1 * h1 + 3 * h0 * h1) / (6 * (h0 + h1));
+    w[n - 1] += (h1 * h1 + 3 * h0 * h1) / (6 * h0);
+    w[n - 2] -= (h1 * h1 * h1) / (6 * h0 * (h0 + h1));
   }
-  return sum;
-};
+  return w;
+}
 
-/** Grid and lengths are checked up front; a non-finite sample surfaces as a non-finite integral. */
-const checkPair = (psiA: ArrayLike<number>, psiB: ArrayLike<number>, z: ArrayLike<number>, where: string): void => {
-  checkGrid(z, where);
-  if (psiA.length !== z.length || psiB.length !== z.length) fail(where, `needs one sample per grid point (${z.length})`, `${psiA.length} and ${psiB.length} samples`, 'sample every function on the same z grid');
+/** A grid with its Simpson weights, checked once (see simpsonWeights). */
+export interface WeightedGrid {
+  readonly z: ArrayLike<number>;
+  readonly w: Float64Array;
+}
+
+export const weightedGrid = (z: ArrayLike<number>): WeightedGrid => ({ z, w: simpsonWeights(z) });
+
+const weightsOf = (grid: ArrayLike<number> | WeightedGrid): WeightedGrid => ('w' in grid ? grid : weightedGrid(grid));
+
+/** Lengths are checked up front; a non-finite sample surfaces as a non-finite integral. */
+const checkPair = (psiA: ArrayLike<number>, psiB: ArrayLike<number>, grid: WeightedGrid, where: string): void => {
+  const n = grid.w.length;
+  if (psiA.length !== n || psiB.length !== n) fail(where, `needs one sample per grid point (${n})`, `${psiA.length} and ${psiB.length} samples`, 'sample every function on the same z grid');
 };
 
 const finiteOr = (x: number, where: string): number => (Number.isFinite(x) ? x : fail(where, 'integral is not finite', x, 'check the wavefunctions and the grid for NaN, overflow or repeated points'));
@@ -85,11 +99,15 @@ const finiteOr = (x: number, where: string): number => (Number.isFinite(x) ? x :
  * 0 between states of opposite parity in a symmetric well.
  *
  * @param psiA, psiB real envelope functions (nm^(−1/2)), normalised, sampled on z.
- * @param z grid (nm), strictly increasing; Simpson rule (see simpson).
+ * @param z grid (nm), strictly increasing, or a weightedGrid of it; Simpson rule (see simpson).
  */
-export function overlap2(psiA: ArrayLike<number>, psiB: ArrayLike<number>, z: ArrayLike<number>): number {
-  checkPair(psiA, psiB, z, 'overlap2');
-  const s = finiteOr(simpsonOf(z, (i) => psiA[i] * psiB[i]), 'overlap2');
+export function overlap2(psiA: ArrayLike<number>, psiB: ArrayLike<number>, z: ArrayLike<number> | WeightedGrid): number {
+  const g = weightsOf(z);
+  checkPair(psiA, psiB, g, 'overlap2');
+  const w = g.w;
+  let sum = 0;
+  for (let i = 0; i < w.length; i++) sum += w[i]! * psiA[i]! * psiB[i]!;
+  const s = finiteOr(sum, 'overlap2');
   return s * s;
 }
 
@@ -100,12 +118,16 @@ export function overlap2(psiA: ArrayLike<number>, psiB: ArrayLike<number>, z: Ar
  * mean position on the grid's origin. Infinite well of width L: z_12 = 16L/(9π²) in magnitude.
  *
  * @param psiI, psiJ real envelope functions (nm^(−1/2)) of the same band, sampled on z.
- * @param z grid (nm), strictly increasing; Simpson rule (see simpson).
+ * @param z grid (nm), strictly increasing, or a weightedGrid of it; Simpson rule (see simpson).
  * @returns z_ij (nm), signed.
  */
-export function dipoleNm(psiI: ArrayLike<number>, psiJ: ArrayLike<number>, z: ArrayLike<number>): number {
-  checkPair(psiI, psiJ, z, 'dipoleNm');
-  return finiteOr(simpsonOf(z, (i) => psiI[i] * psiJ[i] * z[i]), 'dipoleNm');
+export function dipoleNm(psiI: ArrayLike<number>, psiJ: ArrayLike<number>, z: ArrayLike<number> | WeightedGrid): number {
+  const g = weightsOf(z);
+  checkPair(psiI, psiJ, g, 'dipoleNm');
+  const { w, z: zs } = g;
+  let sum = 0;
+  for (let i = 0; i < w.length; i++) sum += w[i]! * psiI[i]! * psiJ[i]! * zs[i]!;
+  return finiteOr(sum, 'dipoleNm');
 }
 
 /**
@@ -140,13 +162,17 @@ export function oscillatorStrength(deltaE_eV: number, dipole_nm: number, mass_m0
  * @returns mass in m0; equals m for a constant mass m.
  */
 export function sumRuleMass(psi: ArrayLike<number>, massProfile: ArrayLike<number>, z: ArrayLike<number>): number {
-  checkGrid(z, 'sumRuleMass');
   checkSamples(psi, z.length, 'sumRuleMass.psi');
   checkSamples(massProfile, z.length, 'sumRuleMass.massProfile');
   for (let i = 0; i < massProfile.length; i++) {
     if (!(massProfile[i] > 0)) fail(`sumRuleMass.massProfile[${i}]`, 'must be positive (m0)', massProfile[i], 'pass the effective mass at every grid point');
   }
-  const inverse = simpsonOf(z, (k) => (psi[k] * psi[k]) / massProfile[k]);
-  const norm = simpsonOf(z, (k) => psi[k] * psi[k]);
+  const w = simpsonWeights(z);
+  let inverse = 0;
+  let norm = 0;
+  for (let k = 0; k < w.length; k++) {
+    inverse += (w[k]! * psi[k]! * psi[k]!) / massProfile[k]!;
+    norm += w[k]! * psi[k]! * psi[k]!;
+  }
   return norm / inverse;
 }
