@@ -12,7 +12,7 @@ export interface SlurmPlan {
   readonly shards: number;
   /** Folder the jobs run in (where the command's relative paths resolve). */
   readonly workdir: string;
-  /** How to run wellsmith on the nodes, as argv words (e.g. [node, dist/engine/cli/main.js]). */
+  /** How to run wellsmith on the nodes, as argv words (e.g. [node, dist/bin/wellsmith.js]). */
   readonly command: readonly string[];
   /** CPUs per array task: the shard's --workers. */
   readonly cpusPerTask: number;

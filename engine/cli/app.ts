@@ -9,6 +9,7 @@ import { runTolerance } from './tolerance.js';
 import { DEFAULT_TOLERANCE } from '../tolerance/analyse.js';
 import { ROBUST_SAMPLES } from './design.js';
 import { defaultWorkers } from '../pool.js';
+import { toolVersion } from '../store/version.js';
 import { DEFAULT_DESIGN_OPTIONS, DEFAULT_WIRE_DESIGN_OPTIONS } from '../design/search.js';
 
 // The plotting stack (vega), the run store (a native module) and their commands load only when
@@ -100,7 +101,8 @@ export async function cli(argv: string[]): Promise<Outcome> {
     .demandCommand(1, 'give a command: solve, design, tolerance, campaign, merge, report, materials (see --help)')
     .strict()
     .help()
-    .version()
+    // Given, not looked up: yargs searches for package.json from its own folder, which a bundle does not have.
+    .version(toolVersion())
     .wrap(Math.min(100, process.stdout.columns ?? 100))
     .fail((msg, err) => {
       if (err) throw err;

@@ -43,7 +43,7 @@ export function parseShard(text: string | undefined): Shard {
 /** How this process was started (node, its flags, the main script), so cluster nodes run the same wellsmith. */
 function selfCommand(): string[] {
   const main = process.argv[1] ?? '';
-  if (!/[\\/]main\.[jt]s$/.test(main)) return ['wellsmith'];
+  if (!/[\\/](main|wellsmith)\.[jt]s$/.test(main)) return ['wellsmith'];
   return [process.execPath, ...process.execArgv, resolve(main)];
 }
 

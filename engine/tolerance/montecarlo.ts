@@ -111,11 +111,21 @@ export function quantile(sorted: readonly number[], q: number): number {
   return sorted[lo]! + (h - lo) * (sorted[hi]! - sorted[lo]!);
 }
 
-/** Mean, σ and 5/50/95 % percentiles of the finite values. */
+/**
+ * Mean, σ (sample, n − 1) and 5/50/95 % percentiles of the finite values. Mean and σ by Welford's
+ * update (B. P. Welford, Technometrics 4, 419 (1962)): equal values give exactly their value and
+ * σ = 0, where a plain sum divided by n can miss the value by an ulp and leave σ ~ 1e-15.
+ */
 export function distribution(values: readonly number[]): Distribution {
   const v = values.filter(Number.isFinite).sort((a, b) => a - b);
   const n = v.length;
-  const mean = n ? v.reduce((a, b) => a + b, 0) / n : NaN;
-  const sigma = n > 1 ? Math.sqrt(v.reduce((a, b) => a + (b - mean) ** 2, 0) / (n - 1)) : n === 1 ? 0 : NaN;
-  return { n, mean, sigma, p5: quantile(v, 0.05), p50: quantile(v, 0.5), p95: quantile(v, 0.95) };
+  let mean = 0;
+  let m2 = 0;
+  for (let k = 0; k < n; k++) {
+    const d = v[k]! - mean;
+    mean += d / (k + 1);
+    m2 += d * (v[k]! - mean);
+  }
+  const sigma = n > 1 ? Math.sqrt(m2 / (n - 1)) : n === 1 ? 0 : NaN;
+  return { n, mean: n ? mean : NaN, sigma, p5: quantile(v, 0.05), p50: quantile(v, 0.5), p95: quantile(v, 0.95) };
 }

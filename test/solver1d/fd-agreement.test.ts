@@ -31,6 +31,25 @@ describe('finite-difference reference', () => {
   });
 });
 
+describe('solveBand agrees with the finite-difference reference where states live away from the deepest well', () => {
+  // A deep 1.5 nm well and a wide shallow 15 nm one behind a 12 nm barrier: most states live in the
+  // wide well, so the first matching boundary (the deep well's edge) is the wrong one for them and
+  // the refinement must move to the wide well. Both orders of the stack.
+  const deepNarrow = layer(1.5, -0.12, 0.067);
+  const barrier = layer(12, 0.3, 0.092);
+  const wide = layer(15, 0, 0.067);
+  for (const [name, slices] of [['deep well first', [deepNarrow, barrier, wide]], ['wide well first', [wide, barrier, deepNarrow]]] as const) {
+    it(`${name}: every state bound by ≥ 10 meV within 5e-7 eV`, () => {
+      const p = profileOf(slices, outer(0.3, 0.092));
+      const ceiling = 0.3 - MARGIN;
+      const got = solveBand(p).states.map((s) => s.energy).filter((e) => e < ceiling);
+      const ref = fdExtrapolated(p, 0.1, TAIL, ceiling);
+      expect(got.length, message('state count below ceiling', name, got.length, ref.length, 0)).toBe(ref.length);
+      got.forEach((e, k) => expect(near(e, ref[k]!, TOL), message(`E${k + 1}`, name, e, ref[k]!, TOL)).toBe(true));
+    });
+  }
+});
+
 describe('solveBand agrees with the finite-difference reference on random stacks', () => {
   it('30 random stacks of 1–5 layers with mass steps: every state bound by ≥ 10 meV within 5e-7 eV', () => {
     fc.assert(
