@@ -198,9 +198,9 @@ function withField<T>(field: string, f: () => T): T {
 }
 
 /**
- * Memo of pure look-ups that a design search repeats thousands of times with the same arguments
- * (the fixed layers of a stack): formula parsing and material resolution. Values are frozen, so
- * sharing them is safe; the table is cleared when it grows past MEMO_LIMIT entries.
+ * Memo of pure look-ups that a design search repeats thousands of times with the same arguments:
+ * formula parsing, and (per spec) the layers that name no variable. Values are frozen, so sharing
+ * them is safe; a table is cleared when it grows past MEMO_LIMIT entries.
  */
 const MEMO_LIMIT = 4096;
 function memo<V>(table: Map<string, V>, key: string, make: () => V): V {
@@ -212,13 +212,6 @@ function memo<V>(table: Map<string, V>, key: string, make: () => V): V {
   return value;
 }
 const formulas = new Map<string, Alloy>();
-const materials = new Map<string, ResolvedMaterial>();
-const sideKey = (side: Readonly<Record<string, number>>): string => {
-  let key = '';
-  for (const k of Object.keys(side).sort()) key += `${k}${side[k]},`;
-  return key;
-};
-const alloyKey = (a: Alloy): string => `${sideKey(a.III)}|${sideKey(a.V)}`;
 
 const parseFormulaAt = (text: string, field: string): Alloy => memo(formulas, text, () => withField(field, () => parseFormula(text)));
 const alloyAt = (name: string, fractions: Record<string, number>, field: string): Alloy => withField(field, () => alloyFromName(name, fractions));
@@ -258,8 +251,7 @@ export function resolveComposition(spec: Spec, alloyOrCustom: Alloy | string, te
       ...(lattice ? { a_nm: lattice.nm } : {}),
     }));
   }
-  const key = `${alloyKey(alloyOrCustom)}@${temperature_K}/${substrate ? alloyKey(substrate) : '-'}`;
-  return memo(materials, key, () => withField(field, () => resolveMaterial(alloyOrCustom, { temperature_K, substrate })));
+  return withField(field, () => resolveMaterial(alloyOrCustom, { temperature_K, substrate }));
 }
 
 /**
@@ -341,15 +333,37 @@ interface LayerPart {
 interface SpecCache {
   readonly vars: readonly VariableInfo[];
   readonly parts: Map<string, LayerPart>;
+  /** Substrate and offset rule at each temperature. */
+  readonly settings: Map<string, Setting>;
+}
+
+/** What every layer of a structure is placed by: the substrate and the band-offset rule. */
+interface Setting {
+  readonly substrate: Alloy | null;
+  readonly reference: ResolvedMaterial | null;
+  readonly offsetRule: OffsetRule;
 }
 const specCaches = new WeakMap<Spec, SpecCache>();
 function cacheOf(spec: Spec): SpecCache {
   let c = specCaches.get(spec);
   if (!c) {
-    c = { vars: variablesOf(spec), parts: new Map() };
+    c = { vars: variablesOf(spec), parts: new Map(), settings: new Map() };
     specCaches.set(spec, c);
   }
   return c;
+}
+
+/** The substrate (checked by resolving it) and the offset rule of a spec at a temperature. */
+function settingOf(spec: Spec, temperature_K: number): Setting {
+  const substrate = spec.substrate === undefined ? null : parseFormulaAt(spec.substrate, 'substrate');
+  if (substrate) resolveComposition(spec, substrate, temperature_K, null, 'substrate');
+  const share = spec.offsets?.conduction_share;
+  if (share === undefined) return { substrate, reference: null, offsetRule: { kind: 'absolute', source: `valence-band offsets of ${PARAMETER_SET}` } };
+  const refText = spec.offsets?.reference ?? spec.substrate;
+  if (refText === undefined) throw new InputError('bad-value', 'offsets.reference: the conduction-share rule needs a reference material; give offsets.reference or a substrate', 'offsets.reference');
+  const refAlloy = spec.materials?.[refText] ? refText : parseFormulaAt(refText, 'offsets.reference');
+  const reference = resolveComposition(spec, refAlloy, temperature_K, null, 'offsets.reference');
+  return { substrate, reference, offsetRule: { kind: 'conduction-share', share, reference: reference.formula } };
 }
 
 /** Whether a layer's composition depends on a free variable (a fraction that names one). */
@@ -366,20 +380,9 @@ export function buildStructure(spec: Spec, values: Readonly<Record<string, numbe
   if (nominalT > MAX_TEMPERATURE_K) throw new InputError('bad-value', `temperature: ${spec.temperature} is above ${MAX_TEMPERATURE_K} K, beyond the Varshni fits of the parameter set; give a growth or operating temperature`, 'temperature');
   const field_kV_per_cm = num(spec.field, parseField, 'field', 0);
   if (!(Math.abs(field_kV_per_cm) <= MAX_FIELD_KV_PER_CM)) throw new InputError('bad-value', `field: ${spec.field} is beyond ±${MAX_FIELD_KV_PER_CM} kV/cm, above the breakdown field of these materials; give a field below it`, 'field');
-  const substrate = spec.substrate === undefined ? null : parseFormulaAt(spec.substrate, 'substrate');
-  if (substrate) resolveComposition(spec, substrate, temperature_K, null, 'substrate');
-  const ctx: Context = { spec, vars, values, temperature_K, substrate };
-
+  const { substrate, reference, offsetRule } = memo(cache.settings, String(temperature_K), () => settingOf(spec, temperature_K));
   const share = spec.offsets?.conduction_share;
-  let reference: ResolvedMaterial | null = null;
-  let offsetRule: OffsetRule = { kind: 'absolute', source: `valence-band offsets of ${PARAMETER_SET}` };
-  if (share !== undefined) {
-    const refText = spec.offsets?.reference ?? spec.substrate;
-    if (refText === undefined) throw new InputError('bad-value', 'offsets.reference: the conduction-share rule needs a reference material; give offsets.reference or a substrate', 'offsets.reference');
-    const refAlloy = spec.materials?.[refText] ? refText : parseFormulaAt(refText, 'offsets.reference');
-    reference = resolveComposition(spec, refAlloy, temperature_K, null, 'offsets.reference');
-    offsetRule = { kind: 'conduction-share', share, reference: reference.formula };
-  }
+  const ctx: Context = { spec, vars, values, temperature_K, substrate };
 
   const bandsOf = (source: Alloy | string, field: string): { bands: LayerBands; material: ResolvedMaterial } => {
     const m = resolveComposition(spec, source, temperature_K, typeof source === 'string' ? null : substrate, field);

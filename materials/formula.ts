@@ -91,35 +91,35 @@ function suggestion(sides: Readonly<Record<Side, readonly Token[]>>, side: Side)
   return fix(sides.III, 'III') + fix(sides.V, 'V');
 }
 
-/** Completes one side: a lone element has fraction 1, one missing fraction is the remainder. */
-function completeSide(text: string, sides: Readonly<Record<Side, readonly Token[]>>, side: Side): Record<string, number> {
+/** Completes one side: a lone element has fraction 1, one missing fraction is the remainder. `textOf` names the alloy in a message. */
+function completeSide(textOf: () => string, sides: Readonly<Record<Side, readonly Token[]>>, side: Side): Record<string, number> {
   const tokens = sides[side];
   const label = side === 'III' ? 'group-III' : 'group-V';
   if (tokens.length === 1) {
     const t = tokens[0]!;
     if (t.frac !== null && Math.abs(t.frac - 1) > SUM_TOLERANCE) {
-      throw bad(text, `${label} fractions sum to ${formatFraction(t.frac)}, must sum to 1 (e.g. ${suggestion(sides, side)})`);
+      throw bad(textOf(), `${label} fractions sum to ${formatFraction(t.frac)}, must sum to 1 (e.g. ${suggestion(sides, side)})`);
     }
     return { [t.el]: 1 };
   }
   const missing = tokens.filter((t) => t.frac === null);
   if (missing.length > 1) {
-    throw bad(text, `${label} fractions missing for ${missing.map((t) => t.el).join(', ')}; give all but at most one, e.g. ${tokens.map((t, i) => t.el + (i === 0 ? '0.3' : i === tokens.length - 1 ? '' : '0.2')).join('')}…`);
+    throw bad(textOf(), `${label} fractions missing for ${missing.map((t) => t.el).join(', ')}; give all but at most one, e.g. ${tokens.map((t, i) => t.el + (i === 0 ? '0.3' : i === tokens.length - 1 ? '' : '0.2')).join('')}…`);
   }
   const given = tokens.reduce((acc, t) => acc + (t.frac ?? 0), 0);
   const out: Record<string, number> = {};
   for (const t of tokens) out[t.el] = t.frac ?? roundFraction(1 - given);
   const sum = Object.values(out).reduce((a, b) => a + b, 0);
   if (Math.abs(sum - 1) > SUM_TOLERANCE || Object.values(out).some((f) => f < 0)) {
-    throw bad(text, `${label} fractions sum to ${formatFraction(missing.length === 1 ? given : sum)}, must sum to 1 (e.g. ${suggestion(sides, side)})`);
+    throw bad(textOf(), `${label} fractions sum to ${formatFraction(missing.length === 1 ? given : sum)}, must sum to 1 (e.g. ${suggestion(sides, side)})`);
   }
   return out;
 }
 
 /** Throws 'unknown-material' when the elements have no VMR2001 parameter set in this table. */
-function checkSupported(text: string, alloy: Alloy): Alloy {
+function checkSupported(textOf: () => string, alloy: Alloy): Alloy {
   const issue = supportIssue(alloy);
-  if (issue !== null) throw new InputError('unknown-material', `material "${text}": ${issue}`);
+  if (issue !== null) throw new InputError('unknown-material', `material "${textOf()}": ${issue}`);
   return alloy;
 }
 
@@ -137,9 +137,10 @@ export function parseFormula(text: string): Alloy {
   const trimmed = text.trim();
   if (trimmed === '') throw bad(text, 'empty formula; write e.g. GaAs or In0.2Ga0.8As');
   const sides = tokenize(trimmed);
-  return checkSupported(trimmed, Object.freeze({
-    III: Object.freeze(completeSide(trimmed, sides, 'III')),
-    V: Object.freeze(completeSide(trimmed, sides, 'V')),
+  const textOf = (): string => trimmed;
+  return checkSupported(textOf, Object.freeze({
+    III: Object.freeze(completeSide(textOf, sides, 'III')),
+    V: Object.freeze(completeSide(textOf, sides, 'V')),
   }));
 }
 
@@ -153,7 +154,7 @@ export function parseFormula(text: string): Alloy {
  */
 export function alloyFromName(name: string, fractions: Readonly<Record<string, number>>): Alloy {
   const trimmed = name.trim();
-  const sides = tokenize(trimmed);
+  const sides = nameTokens(trimmed);
   if ([...sides.III, ...sides.V].some((t) => t.frac !== null)) {
     throw bad(trimmed, 'a name with fractions given separately must carry no numbers; write e.g. InGaAs with { In: 0.2 }');
   }
@@ -166,11 +167,24 @@ export function alloyFromName(name: string, fractions: Readonly<Record<string, n
   }
   const withFractions = (ts: readonly Token[]): Token[] => ts.map((t) => ({ el: t.el, frac: fractions[t.el] ?? null }));
   const filled = { III: withFractions(sides.III), V: withFractions(sides.V) };
-  const text = formatTokens(filled);
-  return checkSupported(text, Object.freeze({
-    III: Object.freeze(completeSide(text, filled, 'III')),
-    V: Object.freeze(completeSide(text, filled, 'V')),
+  // The formula text is only for messages: a search builds this alloy at every candidate.
+  const textOf = (): string => formatTokens(filled);
+  return checkSupported(textOf, Object.freeze({
+    III: Object.freeze(completeSide(textOf, filled, 'III')),
+    V: Object.freeze(completeSide(textOf, filled, 'V')),
   }));
+}
+
+/** Tokens of alloy names (a search builds the same few names at every candidate); tokenize throws on a bad name, which is never stored. */
+const names = new Map<string, { III: Token[]; V: Token[] }>();
+function nameTokens(name: string): { III: Token[]; V: Token[] } {
+  let t = names.get(name);
+  if (!t) {
+    t = tokenize(name);
+    if (names.size >= 256) names.clear();
+    names.set(name, t);
+  }
+  return t;
 }
 
 const formatTokens = (sides: Readonly<Record<Side, readonly Token[]>>): string =>

@@ -60,10 +60,23 @@ export const FIELDS: readonly Field[] = [
   'Dso', 'me', 'gamma1', 'gamma2', 'gamma3', 'Ep', 'F', 'VBO', 'ac', 'av', 'b', 'C11', 'C12',
 ];
 
-/** Which binaries and ternaries an alloy needs, as a message when one is missing, else null. */
+/** Answers of supportIssue by element sets: a search asks about the same alloy at every candidate. */
+const issues = new Map<string, string | null>();
+
+/** Which binaries and ternaries an alloy needs, as a message when one is missing, else null. Depends only on which elements are present. */
 export function supportIssue(alloy: Alloy): string | null {
   const III = Object.keys(alloy.III);
   const V = Object.keys(alloy.V);
+  const key = `${III.join(',')}|${V.join(',')}`;
+  const hit = issues.get(key);
+  if (hit !== undefined) return hit;
+  const issue = findSupportIssue(III, V);
+  if (issues.size >= 256) issues.clear();
+  issues.set(key, issue);
+  return issue;
+}
+
+function findSupportIssue(III: readonly string[], V: readonly string[]): string | null {
   for (const x of III) for (const y of V) {
     if (binaryOf(x, y) === undefined) return `no parameters for ${x}${y} (this table covers Al, Ga, In with P, As, Sb); define a custom material with your own band edges`;
   }
