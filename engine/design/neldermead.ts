@@ -26,13 +26,20 @@ export interface NelderMeadOptions {
   readonly initialStep?: number;
   /** Gao–Han dimension-dependent coefficients; default: used when the dimension exceeds 2. */
   readonly adaptive?: boolean;
+  /**
+   * Stop as soon as the best vertex has f ≤ stopValue (default −Infinity: never): for an objective
+   * with a known floor (a sum of squares, 0) no point can do better by more than this, whatever
+   * the simplex's spread.
+   */
+  readonly stopValue?: number;
 }
 
-export type NelderMeadStatus = 'converged' | 'max-evaluations' | 'no-finite-value';
+export type NelderMeadStatus = 'converged' | 'stop-value' | 'max-evaluations' | 'no-finite-value';
 
 /** One message per status, for the CLI and the report. */
 export const NELDER_MEAD_MESSAGES: Readonly<Record<NelderMeadStatus, string>> = Object.freeze({
   converged: 'simplex spread in x and in f below tolerance',
+  'stop-value': 'the best value reached the stop value (the objective\'s floor, within tolerance)',
   'max-evaluations': 'evaluation budget spent before the simplex converged',
   'no-finite-value': 'no finite objective value was found',
 });
@@ -239,8 +246,10 @@ export const minimize = (f: ObjectiveFunction, x0: readonly number[], options: N
     return fSpread <= fTolerance || best.f === Number.POSITIVE_INFINITY;
   };
 
+  const stopValue = options.stopValue ?? Number.NEGATIVE_INFINITY;
   let iterations = 0;
   for (;;) {
+    if (simplex[0].f <= stopValue) return finish('stop-value', iterations);
     if (converged()) return finish('converged', iterations);
     if (evaluations >= maxEvaluations) return finish('max-evaluations', iterations);
 

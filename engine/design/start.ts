@@ -33,7 +33,15 @@ export interface StartOutcome {
   readonly snapped: { readonly values: Readonly<Record<string, number>>; readonly loss: number };
 }
 
-/** NM stopping rule: simplex spread below 1e-3 in every variable (nm or fraction: under the monolayer and composition lattices the design is snapped to) and 1e-6 in the loss (a thousandth of a window, squared). */
+/**
+ * NM stopping rule: simplex spread below 1e-3 in every variable (nm or fraction: under the
+ * monolayer and composition lattices the design is snapped to) and 1e-6 in the loss (a thousandth
+ * of a window, squared); or a loss of 1e-6 reached, since the loss (Σ w·r²) cannot go below 0.
+ * A target met to a thousandth of its window is a whole valley of designs (a width traded against a
+ * composition): refining along it only moves the start's design along the valley, and the snap to
+ * the lattice moves it further than that. Measured: the 976 nm scenario's 16 starts took 1408
+ * evaluations without the stop value and 754 with it, with the same best design.
+ */
 const X_TOLERANCE = 1e-3;
 const F_TOLERANCE = 1e-6;
 
@@ -45,7 +53,7 @@ export function runStart(task: StartTask): StartOutcome {
     const e = evaluateDesign(problem, valuesOf(problem.variables, x));
     if (!e.ok) failures++;
     return e.loss;
-  }, task.x0, { bounds, maxEvaluations: task.maxEvaluations, xTolerance: X_TOLERANCE, fTolerance: F_TOLERANCE });
+  }, task.x0, { bounds, maxEvaluations: task.maxEvaluations, xTolerance: X_TOLERANCE, fTolerance: F_TOLERANCE, stopValue: F_TOLERANCE });
   const snapped = snapToLattice(problem, nm.x, { compositionStep: task.compositionStep });
   if (!snapped.evaluated.ok) failures++;
   return {

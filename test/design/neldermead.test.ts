@@ -110,6 +110,38 @@ describe('minimize: properties', () => {
   });
 });
 
+describe('minimize: stop value', () => {
+  it('on a sum of squares with a reachable floor it stops once f ≤ stopValue, in no more evaluations (property)', () => {
+    let stopped = 0;
+    fc.assert(
+      fc.property(problemArb, ({ bounds, x0, weights }) => {
+        // A centre inside the box: the floor 0 is reachable.
+        const centre = bounds.map(([lo, hi]) => lo + 0.37 * (hi - lo));
+        const f = quadratic(centre, weights);
+        const full = minimize(f, x0, options(bounds, { xTolerance: 1e-9, fTolerance: 1e-14 }));
+        const early = minimize(f, x0, options(bounds, { xTolerance: 1e-9, fTolerance: 1e-14, stopValue: 1e-6 }));
+        if (early.status === 'stop-value') {
+          stopped++;
+          expect(early.f, `f at the stop: ${early.f}`).toBeLessThanOrEqual(1e-6);
+          expect(early.evaluations, `evaluations ${early.evaluations} with the stop value, ${full.evaluations} without`).toBeLessThanOrEqual(full.evaluations);
+        } else {
+          // Never reached within the budget: the run is the same as without a stop value.
+          expect(early).toEqual(full);
+        }
+        expect(inBox(early.x, bounds)).toBe(true);
+      }),
+      { numRuns: 60, seed: 7 },
+    );
+    expect(stopped, 'runs that reached the stop value within the budget').toBeGreaterThan(30);
+  });
+
+  it('leaves a run whose floor is out of reach unchanged (default: no stop value)', () => {
+    const bounds: Bounds = [[-5, 5], [-5, 5]];
+    const f = (x: readonly number[]): number => 1 + (x[0]! - 1) ** 2 + (x[1]! + 2) ** 2;
+    expect(minimize(f, [0, 0], options(bounds, { stopValue: 1e-6 }))).toEqual(minimize(f, [0, 0], options(bounds)));
+  });
+});
+
 describe('minimize: cases', () => {
   it('finds a minimum on a corner of the box (closed form: clipped centre)', () => {
     // Separable quadratic: the box-constrained minimiser is the centre clipped to the box (common practice).
