@@ -142,14 +142,17 @@ function solveOneBand(structure: Structure, band: BandName, settings: SolverSett
 function inPlaneMass(profile: BandProfile, z: Float64Array, psi: Float64Array, energy: number): number {
   let acc = 0;
   let norm = 0;
-  let k = 0;
-  let end = profile.slices[0]!.width_nm;
-  for (let i = 0; i < z.length; i++) {
-    while (k < profile.slices.length - 1 && z[i]! > end) end += profile.slices[++k]!.width_nm;
+  let i = 0;
+  let end = 0;
+  // Per slice: the sum of |ψ|² over its points, divided once by the slice's mass.
+  for (let k = 0; k < profile.slices.length; k++) {
     const slice = profile.slices[k]!;
-    const p2 = psi[i]! * psi[i]!;
-    acc += p2 / (slice.massInPlane * (1 + slice.alpha * (energy - slice.V)));
-    norm += p2;
+    end += slice.width_nm;
+    const last = k === profile.slices.length - 1;
+    let sum = 0;
+    for (; i < z.length && (last || z[i]! <= end); i++) sum += psi[i]! * psi[i]!;
+    acc += sum / (slice.massInPlane * (1 + slice.alpha * (energy - slice.V)));
+    norm += sum;
   }
   return norm > 0 ? norm / acc : profile.slices[0]!.massInPlane;
 }

@@ -78,6 +78,18 @@ const OSCILLATORY = 1;
 const SHORT_EVANESCENT = 2;
 const LONG_EVANESCENT = 3;
 const FLAT = 0;
+/** Points between direct evaluations of a rotation while sampling (rounding grows with the steps taken). */
+const RESEED = 64;
+
+/** The step of an ascending grid of equal steps (each within 1e-11 of the mean), else undefined. */
+function uniformStep(z: Float64Array): number | undefined {
+  const n = z.length;
+  if (n < 2) return undefined;
+  const h = (z[n - 1]! - z[0]!) / (n - 1);
+  if (!(h > 0)) return undefined;
+  for (let g = 1; g < n; g++) if (Math.abs(z[g]! - z[g - 1]! - h) > 1e-11 * h) return undefined;
+  return h;
+}
 
 /** The profile unpacked into flat arrays once per call, so the sweeps read no objects. */
 interface Unpacked {
@@ -768,38 +780,104 @@ export function wavefunction(profile: BandProfile, energy: number, z_nm: Float64
     }
   }
 
-  const psi = new Float64Array(z_nm.length);
-  const zEnd = edge[n]!;
-  let i = 0;
-  for (let g = 0; g < z_nm.length; g++) {
-    const z = z_nm[g]!;
-    if (z <= 0) {
-      psi[g] = value(true, 0) * Math.exp(kL * z + scale(true, 0) - eMax) * inv;
-      continue;
-    }
-    if (z >= zEnd) {
-      psi[g] = value(n < jStar, n) * Math.exp(-kR * (z - zEnd) + scale(n < jStar, n) - eMax) * inv;
-      continue;
-    }
-    // Grids are usually ascending: keep the slice of the previous point while it still holds z.
-    if (!(z >= edge[i]! && z < edge[i + 1]!)) {
-      let lo = 0;
-      let hi = n;
-      while (hi - lo > 1) {
-        const mid = (lo + hi) >> 1;
-        if (edge[mid]! <= z) lo = mid;
-        else hi = mid;
-      }
-      i = lo;
-    }
-    const x = z - edge[i]!;
+  /** ψ at x inside slice i, directly. */
+  const inSlice = (i: number, x: number): number => {
     const k = kk[i]!;
     switch (kind[i]) {
-      case OSCILLATORY: psi[g] = c0[i]! * Math.cos(k * x - c1[i]!); break;
-      case SHORT_EVANESCENT: { const e = Math.exp(k * x); psi[g] = c0[i]! * e + c1[i]! / e; break; }
-      case LONG_EVANESCENT: psi[g] = c0[i]! * Math.exp(-k * x) + c1[i]! * Math.exp(-k * (width[i]! - x)); break;
-      default: psi[g] = c0[i]! + c1[i]! * x;
+      case OSCILLATORY: return c0[i]! * Math.cos(k * x - c1[i]!);
+      case SHORT_EVANESCENT: { const e = Math.exp(k * x); return c0[i]! * e + c1[i]! / e; }
+      case LONG_EVANESCENT: return c0[i]! * Math.exp(-k * x) + c1[i]! * Math.exp(-k * (width[i]! - x));
+      default: return c0[i]! + c1[i]! * x;
     }
+  };
+  const psi = new Float64Array(z_nm.length);
+  const zEnd = edge[n]!;
+  const leftTail = (z: number): number => value(true, 0) * Math.exp(kL * z + scale(true, 0) - eMax) * inv;
+  const rightTail = (z: number): number => value(n < jStar, n) * Math.exp(-kR * (z - zEnd) + scale(n < jStar, n) - eMax) * inv;
+  const h = uniformStep(z_nm);
+  if (h === undefined) {
+    let i = 0;
+    for (let g = 0; g < z_nm.length; g++) {
+      const z = z_nm[g]!;
+      if (z <= 0) { psi[g] = leftTail(z); continue; }
+      if (z >= zEnd) { psi[g] = rightTail(z); continue; }
+      // Keep the slice of the previous point while it still holds z.
+      if (!(z >= edge[i]! && z < edge[i + 1]!)) {
+        let lo = 0;
+        let hi = n;
+        while (hi - lo > 1) {
+          const mid = (lo + hi) >> 1;
+          if (edge[mid]! <= z) lo = mid;
+          else hi = mid;
+        }
+        i = lo;
+      }
+      psi[g] = inSlice(i, z - edge[i]!);
+    }
+    return psi;
   }
+  // A uniform ascending grid (the engine's): inside a slice, step from point to point by the
+  // addition theorems, a rotation for cos(kx − φ) and a constant factor for each exponential, each
+  // exponential taken in the direction it decays; every slice starts from a direct evaluation and
+  // the rotation restarts every RESEED points, so rounding grows by at most that many steps.
+  let g = 0;
+  const N = z_nm.length;
+  for (; g < N && z_nm[g]! <= 0; g++) psi[g] = leftTail(z_nm[g]!);
+  for (let i = 0; i < n && g < N; i++) {
+    let g1 = g;
+    while (g1 < N && z_nm[g1]! < edge[i + 1]!) g1++;
+    if (g1 === g) continue;
+    const x0 = z_nm[g]! - edge[i]!;
+    const k = kk[i]!;
+    switch (kind[i]) {
+      case OSCILLATORY: {
+        const cd = Math.cos(k * h);
+        const sd = Math.sin(k * h);
+        let C = 0;
+        let S = 0;
+        for (let q = g; q < g1; q++) {
+          if ((q - g) % RESEED === 0) {
+            const theta = k * (z_nm[q]! - edge[i]!) - c1[i]!;
+            C = Math.cos(theta);
+            S = Math.sin(theta);
+          }
+          psi[q] = c0[i]! * C;
+          const C1 = C * cd - S * sd;
+          S = S * cd + C * sd;
+          C = C1;
+        }
+        break;
+      }
+      case SHORT_EVANESCENT: {
+        const up = Math.exp(k * h);
+        let grow = Math.exp(k * x0);
+        let decay = 1 / grow;
+        for (let q = g; q < g1; q++) {
+          psi[q] = c0[i]! * grow + c1[i]! * decay;
+          grow *= up;
+          decay /= up;
+        }
+        break;
+      }
+      case LONG_EVANESCENT: {
+        const r = Math.exp(-k * h);
+        let a = Math.exp(-k * x0);
+        for (let q = g; q < g1; q++) {
+          psi[q] = c0[i]! * a;
+          a *= r;
+        }
+        let b = Math.exp(-k * (width[i]! - (z_nm[g1 - 1]! - edge[i]!)));
+        for (let q = g1 - 1; q >= g; q--) {
+          psi[q] += c1[i]! * b;
+          b *= r;
+        }
+        break;
+      }
+      default:
+        for (let q = g; q < g1; q++) psi[q] = inSlice(i, z_nm[q]! - edge[i]!);
+    }
+    g = g1;
+  }
+  for (; g < N; g++) psi[g] = rightTail(z_nm[g]!);
   return psi;
 }
