@@ -1,11 +1,16 @@
 /**
  * The worker pool (piscina). It owns the queue and shutdown; results come back in task order
- * whatever the completion order, so nothing downstream depends on scheduling. This thread is one
- * of the W workers: it takes tasks from the same queue as W − 1 pool threads, so it works while
- * they start up (loading the engine costs a thread ~0.1–0.3 s), and W = 1 needs no thread at all.
- * When this thread runs out of new tasks it also runs tasks still waiting in a thread that has not
- * started yet; the first result to arrive is kept. Every task is deterministic, so which lane runs
- * it never changes a result.
+ * whatever the completion order, so nothing downstream depends on scheduling.
+ *
+ * Cold (threads not yet started, or started in this call): this thread is one of the W lanes,
+ * beside W − 1 threads, so a search never waits for threads to load the engine (0.1–0.3 s) and
+ * warm up their JIT (their first hundreds of evaluations run 2–3× slower); W = 1 needs no thread.
+ * Warm (all W threads kept from earlier calls, each having answered): the W threads carry the work
+ * and this thread only hands out tasks, since on W cores a (W + 1)-th lane only slows the others
+ * (measured, 2 cores, a 64-start search: W threads 0.75–0.83 s, this thread beside one thread
+ * 0.88–0.94 s). The W-th thread starts in the first call after the others have answered. At the
+ * end this thread also runs tasks still queued in a thread; the first result to arrive is kept.
+ * Every task is deterministic, so which lane runs it never changes a result.
  */
 import { availableParallelism } from 'node:os';
 import { InputError } from './errors.js';
@@ -23,8 +28,16 @@ function unwrap(r: WorkerResponse): WorkerResult {
 
 /** A thread takes roughly this long to load the engine here (0.1–0.3 s measured on 2 cores), before its JIT warms up. */
 const THREAD_START_DELAY_MS = 300;
-/** Threads are started only when, at this thread's pace so far, more than this much work remains: less would not repay loading and warming them up. */
-const MIN_REMAINING_FOR_THREADS_MS = 500;
+/**
+ * In a process without threads yet, they are started only when, at this thread's pace so far,
+ * more than this much work remains: less does not repay loading and warming them up. Measured on
+ * the 2-core VM from the command line (process start included): the intersubband scenario's 64
+ * starts took 2.0 s on this thread alone and 2.4 s with a thread started at 0.3 s; 256 starts, 4.4 s
+ * alone and 3.8 s with the thread.
+ */
+const MIN_REMAINING_FOR_THREADS_MS = 3000;
+/** Time this process has spent in earlier calls (ms): a host that keeps searching (a campaign, a robust ranking) counts it towards the work threads would repay. */
+let earlierWorkMs = 0;
 
 type Pool = import('piscina').Piscina<WorkerTask, WorkerResponse>;
 
@@ -33,7 +46,14 @@ type Pool = import('piscina').Piscina<WorkerTask, WorkerResponse>;
  * library user running many searches pays thread start-up and JIT warm-up once. Threads are
  * unreferenced between calls, so they never keep the process alive.
  */
-let shared: { readonly threads: number; readonly pool: Pool; loaded: Promise<unknown> | undefined } | undefined;
+let shared: {
+  /** W: the pool grows to W threads (W − 1 while cold). */
+  readonly threads: number;
+  readonly pool: Pool;
+  loaded: Promise<unknown> | undefined;
+  /** Threads that have answered a task (their ids): loaded and working. */
+  readonly answered: Set<number>;
+} | undefined;
 
 /**
  * Destroying a thread while it is still loading the engine can abort the process inside V8's
@@ -52,13 +72,16 @@ function threadPool(Piscina: typeof import('piscina').Piscina, threads: number):
   const pool: Pool = new Piscina<WorkerTask, WorkerResponse>({
     filename: new URL(isTs ? './worker.ts' : './worker.js', import.meta.url).href,
     execArgv: isTs ? ['--import', import.meta.resolve('tsx')] : [],
-    minThreads: threads,
+    // W − 1 threads to begin with; piscina adds the W-th when a call sends tasks for W threads,
+    // and never retires a thread (each keeps its warm JIT).
+    minThreads: threads - 1,
     maxThreads: threads,
+    idleTimeout: Infinity,
     // Tasks are synchronous, so a second task sent ahead waits inside the thread and starts the
     // moment the first ends, instead of waiting for this thread to pause and hand it over.
     concurrentTasksPerWorker: 2,
   });
-  shared = { threads, pool, loaded: undefined };
+  shared = { threads, pool, loaded: undefined, answered: new Set() };
   return pool;
 }
 
@@ -95,27 +118,48 @@ export async function runTasks(tasks: readonly WorkerTask[], options: PoolOption
   const take = (): number => (next < tasks.length ? next++ : -1);
   let settle: (error?: unknown) => void = () => undefined;
   const finished = new Promise<void>((resolve, reject) => { settle = (error) => (error === undefined ? resolve() : reject(error)); });
+  let wake: () => void = () => undefined;
   const finish = (i: number, r: WorkerResult): void => {
     if (state[i] === 2) return;
     state[i] = 2;
     out[i] = r;
     done++;
     options.onProgress?.(done, tasks.length, r);
+    wake();
     if (done === tasks.length) settle();
   };
+  const threads = Math.min(options.workers, tasks.length);
+  const kept = shared?.threads === threads ? shared : undefined;
+  // Warm: every one of the W threads has answered before. Growing: the W − 1 threads have; this
+  // call starts the W-th, which is cold, so this thread still works.
+  const warm = kept !== undefined && kept.answered.size >= threads;
+  const lanes = 2 * (kept !== undefined && kept.answered.size >= threads - 1 ? threads : threads - 1);
+  let steals = 0;
   const here = async (): Promise<void> => {
     for (;;) {
-      let i = take();
-      if (i < 0) i = state.indexOf(1);
+      // While the threads work through new tasks this thread waits: on W cores a (W + 1)-th lane
+      // only slows the others. At the end it runs tasks still queued in a thread: all of them while
+      // no thread has loaded, else one per thread (each has one queued behind the one it runs),
+      // newest first, the least likely to have started.
+      let i = warm ? -1 : take();
+      if (i < 0 && next < tasks.length) {
+        await new Promise<void>((resolve) => { wake = resolve; });
+        continue;
+      }
+      if (i < 0 && (!warm || steals < threads)) {
+        i = state.lastIndexOf(1);
+        steals++;
+      }
       if (i < 0) return;
       finish(i, unwrap(work(tasks[i]!)));
       // Let pool results, timers (progress display) and signals in between tasks.
       await new Promise((resolve) => setImmediate(resolve));
     }
   };
-  const threads = Math.min(options.workers, tasks.length) - 1;
-  if (threads <= 0) {
+  if (threads <= 1) {
+    const t0 = performance.now();
     await here();
+    earlierWorkMs += performance.now() - t0;
     return out;
   }
   // Threads start only once this thread has worked for about as long as starting one takes
@@ -136,6 +180,7 @@ export async function runTasks(tasks: readonly WorkerTask[], options: PoolOption
         const run = p.run(tasks[i]!);
         if (shared?.pool === p) shared.loaded ??= run;
         const response = await run.catch((e: unknown) => (state[i] === 2 ? null : Promise.reject(e)));
+        if (response && shared?.pool === p) shared.answered.add(response.thread);
         if (response && state[i] !== 2) {
           options.onThreadResult?.(i);
           finish(i, unwrap(response));
@@ -143,21 +188,23 @@ export async function runTasks(tasks: readonly WorkerTask[], options: PoolOption
       }
     };
     // Two tasks in flight per thread: the next one is already queued when a thread finishes,
-    // instead of waiting for this thread to pause between its own tasks to hand it one.
-    for (let k = 0; k < 2 * threads; k++) lane().catch(settle);
+    // instead of waiting for this thread to hand it one.
+    for (let k = 0; k < lanes; k++) lane().catch(settle);
   };
   const started = performance.now();
   const timer = setTimeout(() => {
     const elapsed = performance.now() - started;
     const remaining = done > 0 ? (elapsed / done) * (tasks.length - done) : Infinity;
-    if (options.eager || shared?.threads === threads || remaining > MIN_REMAINING_FOR_THREADS_MS) startThreads().catch(settle);
-  }, options.eager || shared?.threads === threads ? 0 : THREAD_START_DELAY_MS);
+    if (options.eager || kept || remaining + earlierWorkMs > MIN_REMAINING_FOR_THREADS_MS) startThreads().catch(settle);
+  }, options.eager || kept ? 0 : THREAD_START_DELAY_MS);
   try {
     here().catch(settle);
     if (tasks.length > 0) await finished;
   } finally {
     clearTimeout(timer);
+    wake();
     if (pool) hold(pool, false);
+    earlierWorkMs += performance.now() - started;
   }
   return out;
 }

@@ -2,15 +2,17 @@
  * The pool's worker: requests and responses are plain data, a union on `type`; an error crosses
  * the thread boundary as {name, code, message}.
  */
+import { threadId } from 'node:worker_threads';
 import { runStart, type StartOutcome, type StartTask } from './design/start.js';
 import { runBatch, type BatchOutcome, type BatchTask } from './tolerance/montecarlo.js';
 
 export type WorkerTask = StartTask | BatchTask;
 export type WorkerResult = StartOutcome | BatchOutcome;
 
+/** `thread` is the id of the thread that answered (0 for the main thread), so the pool knows which threads have loaded. */
 export type WorkerResponse =
-  | { readonly type: 'ok'; readonly value: WorkerResult }
-  | { readonly type: 'error'; readonly name: string; readonly code: string | undefined; readonly message: string };
+  | { readonly type: 'ok'; readonly value: WorkerResult; readonly thread: number }
+  | { readonly type: 'error'; readonly name: string; readonly code: string | undefined; readonly message: string; readonly thread: number };
 
 export function handle(task: WorkerTask): WorkerResult {
   switch (task.type) {
@@ -21,9 +23,9 @@ export function handle(task: WorkerTask): WorkerResult {
 
 export default function work(task: WorkerTask): WorkerResponse {
   try {
-    return { type: 'ok', value: handle(task) };
+    return { type: 'ok', value: handle(task), thread: threadId };
   } catch (e) {
     const err = e instanceof Error ? e : new Error(String(e));
-    return { type: 'error', name: err.name, code: (err as { code?: string }).code, message: err.message };
+    return { type: 'error', name: err.name, code: (err as { code?: string }).code, message: err.message, thread: threadId };
   }
 }

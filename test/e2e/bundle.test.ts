@@ -43,7 +43,10 @@ describe('bundled command', () => {
     const task: WorkerTask = designTasks(spec, { ...DEFAULT_DESIGN_OPTIONS, starts: 2, maxEvaluations: 40 })[1]!;
     const pool = new Piscina<WorkerTask, WorkerResponse>({ filename: pathToFileURL(join(ROOT, OUT, 'worker.js')).href, minThreads: 1, maxThreads: 1 });
     try {
-      expect(await pool.run(task)).toEqual(work(task));
+      const { thread, ...there } = await pool.run(task);
+      const { thread: main, ...here } = work(task);
+      expect(thread, 'id of the answering thread').toBeGreaterThan(main);
+      expect(there).toEqual(here);
     } finally {
       await pool.destroy();
     }

@@ -18,4 +18,22 @@ describe('worker pool', () => {
     expect(fromThread.length, 'tasks finished by the worker thread').toBeGreaterThan(0);
     expect(pooled).toEqual(alone);
   }, 120_000);
+
+  it('once both kept threads have answered, they carry the work and this thread only takes the last queued tasks (engine/pool.ts)', async () => {
+    await closePool();
+    const { spec } = parseSpecText(readFileSync('runs/qwip-9um.yaml', 'utf8'));
+    const tasks = designTasks(spec, { ...DEFAULT_DESIGN_OPTIONS, starts: 40, maxEvaluations: 100 });
+    const alone = await runTasks(tasks, { workers: 1 });
+    const fromThreads: number[] = [];
+    // The first calls start one thread beside this one, then add the second (each loads the engine,
+    // slowly under tsx); once both have answered a call, they are warm.
+    for (let call = 0; call < 8 && !(fromThreads.at(-1)! >= tasks.length - 2); call++) {
+      let n = 0;
+      const pooled = await runTasks(tasks, { workers: 2, eager: true, onThreadResult: () => n++ });
+      expect(pooled, `call ${call + 1}: results as on this thread alone`).toEqual(alone);
+      fromThreads.push(n);
+    }
+    // Warm: at most one task per thread (the one queued behind its last) is run here.
+    expect(fromThreads.at(-1), `tasks kept from threads per call: ${fromThreads.join(', ')}`).toBeGreaterThanOrEqual(tasks.length - 2);
+  }, 120_000);
 });
