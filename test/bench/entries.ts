@@ -71,8 +71,8 @@ function ensureBuilt(): string {
 }
 
 const POOL_STARTS = 64;
-/** Five timed runs of each worker count: a 2-core VM's timings vary by ±15 % from run to run. */
-const POOL_POLICY = { ...HEAVY_POLICY, minRuns: 5, maxRuns: 5 };
+/** Three warm-up calls (JIT) and seven timed runs of each worker count: a 2-core VM's timings vary by ±15 % from run to run. */
+const POOL_POLICY = { ...HEAVY_POLICY, warmup: 3, minRuns: 7, maxRuns: 7 };
 
 export const ENTRIES: readonly BenchEntry[] = [
   {
@@ -185,9 +185,9 @@ export const ENTRIES: readonly BenchEntry[] = [
         policy: POOL_POLICY,
         run: run(1),
         reference: async (ours) => {
-          // Warm-up calls start the kept threads, grow them to two and let both answer (engine/pool.ts:
+          // The warm-up calls start the kept threads, grow them to two and let both answer (engine/pool.ts:
           // warm threads carry the work): the steady state of a campaign or any host that keeps searching.
-          const two = await measure(run(2), { ...POOL_POLICY, warmup: 3 });
+          const two = await measure(run(2), POOL_POLICY);
           const same = two.values.length === ours.values.length && two.values.every((v, k) => v === ours.values[k]);
           return { name: 'same design, workers 2', median_ms: two.median_ms, note: same ? 'workers 1 and 2 ranked identical losses' : `workers 1 and 2 differ: ${JSON.stringify(ours.values)} vs ${JSON.stringify(two.values)}` };
         },
