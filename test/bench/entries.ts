@@ -14,7 +14,7 @@ import { loadSpecFile, parseSpecText } from '../../engine/spec/load.js';
 import type { Spec } from '../../engine/spec/schema.js';
 import { buildStructure, nominalVariables, type Structure } from '../../engine/structure.js';
 import { DEFAULT_TOLERANCE, runSamples } from '../../engine/tolerance/analyse.js';
-import { HEAVY_POLICY, measure, pythonUnavailable, runPythonJson, type BenchEntry, type Reference } from './harness.js';
+import { HEAVY_POLICY, median, pythonUnavailable, runPythonJson, type BenchEntry, type Reference } from './harness.js';
 
 export const ROOT = fileURLToPath(new URL('../../', import.meta.url));
 const here = (file: string): string => fileURLToPath(new URL(file, import.meta.url));
@@ -71,8 +71,12 @@ function ensureBuilt(): string {
 }
 
 const POOL_STARTS = 64;
-/** Three warm-up calls (JIT) and seven timed runs of each worker count: a 2-core VM's timings vary by ±15 % from run to run. */
-const POOL_POLICY = { ...HEAVY_POLICY, warmup: 3, minRuns: 7, maxRuns: 7 };
+/**
+ * Warm-up calls (JIT: a thread's first few thousand evaluations run slower; measured, the first
+ * three paired runs after three warm-ups were still 20–40 % slower on two threads) and seven timed
+ * runs of each worker count: a 2-core VM's timings vary by ±15 % from run to run.
+ */
+const POOL_POLICY = { ...HEAVY_POLICY, warmup: 6, minRuns: 7, maxRuns: 7 };
 
 export const ENTRIES: readonly BenchEntry[] = [
   {
@@ -187,9 +191,25 @@ export const ENTRIES: readonly BenchEntry[] = [
         reference: async (ours) => {
           // The warm-up calls start the kept threads, grow them to two and let both answer (engine/pool.ts:
           // warm threads carry the work): the steady state of a campaign or any host that keeps searching.
-          const two = await measure(run(2), POOL_POLICY);
-          const same = two.values.length === ours.values.length && two.values.every((v, k) => v === ours.values[k]);
-          return { name: 'same design, workers 2', median_ms: two.median_ms, note: same ? 'workers 1 and 2 ranked identical losses' : `workers 1 and 2 differ: ${JSON.stringify(ours.values)} vs ${JSON.stringify(two.values)}` };
+          for (let k = 0; k < POOL_POLICY.warmup; k++) await run(2)();
+          const ones: number[] = [];
+          const twos: number[] = [];
+          let values: number[] = [];
+          for (let k = 0; k < POOL_POLICY.minRuns; k++) {
+            let t = performance.now();
+            await run(1)();
+            ones.push(performance.now() - t);
+            t = performance.now();
+            values = await run(2)();
+            twos.push(performance.now() - t);
+          }
+          const same = values.length === ours.values.length && values.every((v, k) => v === ours.values[k]);
+          return {
+            name: 'same design, workers 2, in pairs with workers 1',
+            median_ms: median(twos),
+            ratio: median(ones.map((t, k) => t / twos[k]!)),
+            note: `${same ? 'workers 1 and 2 ranked identical losses' : `workers 1 and 2 differ: ${JSON.stringify(ours.values)} vs ${JSON.stringify(values)}`}; pairs (ms, workers 1 / 2): ${ones.map((t, k) => `${t.toFixed(0)}/${twos[k]!.toFixed(0)}`).join(' ')}`,
+          };
         },
       };
     },

@@ -59,6 +59,15 @@ describe('runEntry', () => {
     expect(row.ratio, `ratio: got ${row.ratio}, expected 2, tolerance 1e-12`).toBeCloseTo(2, 12);
   });
 
+  it('reports the ratio a reference measured in interleaved pairs instead of the two medians\' ratio', async () => {
+    const entry: BenchEntry = {
+      name: 'paired',
+      prepare: () => ({ policy, run: () => [1], reference: async (ours) => ({ name: 'paired', median_ms: ours.median_ms / 2, ratio: 1.9 }) }),
+    };
+    const row = await runEntry(entry, quiet);
+    expect(row.ratio, 'the paired ratio').toBe(1.9);
+  });
+
   it('runs without a ratio and says why when the reference is skipped', async () => {
     const notes: string[] = [];
     const entry: BenchEntry = { name: 'skipped', prepare: () => ({ policy, run: () => [1], reference: async () => ({ skipped: 'no python3' }) }) };

@@ -34,6 +34,12 @@ export interface Reference {
   readonly median_ms: number;
   /** Something to say about it on stderr (grid used, agreement reached). */
   readonly note?: string;
+  /**
+   * Ours / reference measured by the entry itself in interleaved pairs (the median of the pairs'
+   * ratios), when it measures so: pairs share the machine's state, which a shared VM's slow drifts
+   * change between two separate series. Otherwise the ratio is the two medians'.
+   */
+  readonly ratio?: number;
 }
 
 export interface Prepared {
@@ -110,7 +116,7 @@ export async function runEntry(entry: BenchEntry, note: (line: string) => void):
     throw new BenchNaNError(`benchmark "${entry.name}": reference "${ref.name}" median is ${ref.median_ms} ms; expected a positive time`);
   }
   if (ref.note) note(`${entry.name}: ${ref.note}`);
-  return { ...row, ratio: ours.median_ms / ref.median_ms, reference: ref.name };
+  return { ...row, ratio: ref.ratio ?? ours.median_ms / ref.median_ms, reference: ref.name };
 }
 
 let pythonChecked: string | null | undefined;
