@@ -30,6 +30,9 @@ export async function cli(argv: string[]): Promise<Outcome> {
     return [command, describe, builder];
   };
   let usage: string | undefined;
+  // yargs lays out a command's whole help text on every run (to cache it): only --help shows it,
+  // so other runs get it unwrapped and without the long epilogue, at a fraction of the cost.
+  const wantsHelp = argv.some((a) => a === '--help' || a === '-h');
   const parsed = await yargs(argv)
     .scriptName('wellsmith')
     .usage('$0 <command> [options]\n\nInverse design of semiconductor quantum wells and wires.')
@@ -54,7 +57,7 @@ export async function cli(argv: string[]): Promise<Outcome> {
         .option('out', { type: 'string', describe: 'folder for design-N.yaml specs and ranking.csv' })
         .option('json', { type: 'boolean', default: false, describe: 'machine-readable output on stdout' })
         .option('robust', { type: 'boolean', default: false, describe: `rank the top designs by Monte Carlo growth yield (${ROBUST_SAMPLES} samples, default growth errors of "wellsmith tolerance"), then by loss` })
-        .epilogue(TARGET_HELP),
+        .epilogue(wantsHelp ? TARGET_HELP : ''),
     (a) => runDesign({ spec: a.spec!, starts: a.starts, seed: a.seed, top: a.top, workers: a.workers, step: a.step, evaluations: a.evaluations, out: a.out, json: a.json, robust: a.robust })))
     .command(...own('tolerance <spec>', 'growth-error sensitivities, Monte Carlo yield and monolayer-island lines of one design', (y) =>
       y.positional('spec', { type: 'string', demandOption: true, describe: 'spec with nominal values (e.g. a design-N.yaml written by design --out)' })
@@ -103,7 +106,7 @@ export async function cli(argv: string[]): Promise<Outcome> {
     .help()
     // Given, not looked up: yargs searches for package.json from its own folder, which a bundle does not have.
     .version(toolVersion())
-    .wrap(Math.min(100, process.stdout.columns ?? 100))
+    .wrap(wantsHelp ? Math.min(100, process.stdout.columns ?? 100) : null)
     .fail((msg, err) => {
       if (err) throw err;
       usage = `wellsmith: ${msg}; see "wellsmith --help"\n`;
