@@ -405,9 +405,8 @@ export function buildStructure(spec: Spec, values: Readonly<Record<string, numbe
     return { material: m, bands: { Ec, Ehh, Elh, me: m.me, mhh_z: m.mhh_z, mlh_z: m.mlh_z, mhh_par: m.mhh_par, mlh_par: m.mlh_par, alpha } };
   };
 
-  const partOf = (layer: LayerSpec, i: number, dx: number): LayerPart => {
+  const partOf = (composition: LayerComposition, i: number): LayerPart => {
     const field = `stack[${i}]`;
-    const composition = perturbComposition(compositionOf(layer, i, ctx), dx);
     const mid = composition.kind === 'custom' ? composition.name : composition.kind === 'alloy' ? composition.alloy : mixAlloys(composition.from, composition.to, 0.5);
     const centre = bandsOf(mid, `${field}.material`);
     const bands = composition.kind === 'graded'
@@ -422,8 +421,13 @@ export function buildStructure(spec: Spec, values: Readonly<Record<string, numbe
     const field = `stack[${i}]`;
     const dx = perturbation.composition?.[i] ?? 0;
     let part: LayerPart;
-    if (dx !== 0 || namesVariable(layer)) part = partOf(layer, i, dx);
-    else part = memo(cache.parts, `${i}@${temperature_K}`, () => partOf(layer, i, 0));
+    if (namesVariable(layer)) part = partOf(perturbComposition(compositionOf(layer, i, ctx), dx), i);
+    else {
+      const base = memo(cache.parts, `${i}@${temperature_K}`, () => partOf(compositionOf(layer, i, ctx), i));
+      // A composition error leaves binaries and custom materials as they are.
+      const composition = perturbComposition(base.composition, dx);
+      part = composition === base.composition ? base : partOf(composition, i);
+    }
     const { composition, formula, material, bands } = part;
 
     let length: Length;
