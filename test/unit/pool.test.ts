@@ -3,6 +3,8 @@ import { parseSpecText } from '../../engine/spec/load.js';
 import { readFileSync } from 'node:fs';
 import { designTasks, DEFAULT_DESIGN_OPTIONS } from '../../engine/design/search.js';
 import { closePool, runTasks } from '../../engine/pool.js';
+import { batchTasks, DEFAULT_GROWTH } from '../../engine/tolerance/montecarlo.js';
+import { nominalVariables } from '../../engine/structure.js';
 
 afterAll(closePool);
 
@@ -16,6 +18,16 @@ describe('worker pool', () => {
     const fromThread: number[] = [];
     const pooled = await runTasks(tasks, { workers: 2, eager: true, onThreadResult: (i) => fromThread.push(i) });
     expect(fromThread.length, 'tasks finished by the worker thread').toBeGreaterThan(0);
+    expect(pooled).toEqual(alone);
+  }, 120_000);
+
+  it('runs tolerance Monte Carlo batches on a worker thread with the samples of this thread (deterministic per sample)', async () => {
+    const { spec } = parseSpecText(readFileSync('runs/pump-976.yaml', 'utf8'));
+    const tasks = batchTasks(spec, nominalVariables(spec), DEFAULT_GROWTH, 9, 600, 20);
+    const alone = await runTasks(tasks, { workers: 1 });
+    const fromThread: number[] = [];
+    const pooled = await runTasks(tasks, { workers: 2, eager: true, onThreadResult: (i) => fromThread.push(i) });
+    expect(fromThread.length, 'batches finished by a worker thread').toBeGreaterThan(0);
     expect(pooled).toEqual(alone);
   }, 120_000);
 
