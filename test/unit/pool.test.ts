@@ -8,33 +8,32 @@ import { nominalVariables } from '../../engine/structure.js';
 
 afterAll(closePool);
 
+/** Runs the tasks on this thread alone and with worker threads started at once: the results must agree and threads must have finished some. */
+async function expectThreadsAgree(tasks: Parameters<typeof runTasks>[0], what: string): Promise<void> {
+  const alone = await runTasks(tasks, { workers: 1 });
+  const fromThread: number[] = [];
+  const pooled = await runTasks(tasks, { workers: 2, eager: true, onThreadResult: (i) => fromThread.push(i) });
+  expect(fromThread.length, `${what} finished by a worker thread`).toBeGreaterThan(0);
+  expect(pooled).toEqual(alone);
+}
+
+const specOf = (file: string) => parseSpecText(readFileSync(file, 'utf8')).spec;
+
 describe('worker pool', () => {
   it('gives the same results in task order from this thread alone and with a worker thread (deterministic tasks)', async () => {
     // Enough work (intersubband targets sample wavefunctions) for a worker thread, which must
     // first load the engine, to finish some tasks itself.
-    const { spec } = parseSpecText(readFileSync('runs/qwip-9um.yaml', 'utf8'));
-    const tasks = designTasks(spec, { ...DEFAULT_DESIGN_OPTIONS, starts: 160, maxEvaluations: 60 });
-    const alone = await runTasks(tasks, { workers: 1 });
-    const fromThread: number[] = [];
-    const pooled = await runTasks(tasks, { workers: 2, eager: true, onThreadResult: (i) => fromThread.push(i) });
-    expect(fromThread.length, 'tasks finished by the worker thread').toBeGreaterThan(0);
-    expect(pooled).toEqual(alone);
+    await expectThreadsAgree(designTasks(specOf('runs/qwip-9um.yaml'), { ...DEFAULT_DESIGN_OPTIONS, starts: 160, maxEvaluations: 60 }), 'design starts');
   }, 120_000);
 
   it('runs tolerance Monte Carlo batches on a worker thread with the samples of this thread (deterministic per sample)', async () => {
-    const { spec } = parseSpecText(readFileSync('runs/pump-976.yaml', 'utf8'));
-    const tasks = batchTasks(spec, nominalVariables(spec), DEFAULT_GROWTH, 9, 600, 20);
-    const alone = await runTasks(tasks, { workers: 1 });
-    const fromThread: number[] = [];
-    const pooled = await runTasks(tasks, { workers: 2, eager: true, onThreadResult: (i) => fromThread.push(i) });
-    expect(fromThread.length, 'batches finished by a worker thread').toBeGreaterThan(0);
-    expect(pooled).toEqual(alone);
+    const spec = specOf('runs/pump-976.yaml');
+    await expectThreadsAgree(batchTasks(spec, nominalVariables(spec), DEFAULT_GROWTH, 9, 600, 20), 'Monte Carlo batches');
   }, 120_000);
 
   it('once both kept threads have answered, they carry the work and this thread only takes the last queued tasks (engine/pool.ts)', async () => {
     await closePool();
-    const { spec } = parseSpecText(readFileSync('runs/qwip-9um.yaml', 'utf8'));
-    const tasks = designTasks(spec, { ...DEFAULT_DESIGN_OPTIONS, starts: 40, maxEvaluations: 100 });
+    const tasks = designTasks(specOf('runs/qwip-9um.yaml'), { ...DEFAULT_DESIGN_OPTIONS, starts: 40, maxEvaluations: 100 });
     const alone = await runTasks(tasks, { workers: 1 });
     const fromThreads: number[] = [];
     // The first calls start one thread beside this one, then add the second (each loads the engine,
