@@ -370,7 +370,11 @@ function settingOf(spec: Spec, temperature_K: number): Setting {
 const namesVariable = (layer: LayerSpec): boolean =>
   Object.keys(layer).some((k) => !RESERVED.has(k) && typeof (layer as Record<string, unknown>)[k] === 'string');
 
-/** Builds the Structure of a spec at the given variable values, optionally with growth errors. */
+/**
+ * Builds the Structure of a spec at the given variable values, optionally with growth errors.
+ * A spec is a value: what does not depend on the values is kept per spec object, so a changed
+ * spec must be a new object (as the parser, design writer and campaign sweeps make them).
+ */
 export function buildStructure(spec: Spec, values: Readonly<Record<string, number>>, perturbation: Perturbation = {}): Structure {
   const cache = cacheOf(spec);
   const vars = cache.vars;
