@@ -77,7 +77,12 @@ const DEFAULT_TOLERANCE = 1e-12;
 const OSCILLATORY = 1;
 const SHORT_EVANESCENT = 2;
 const LONG_EVANESCENT = 3;
-const FLAT = 0;
+const NEAR_FLAT = 0;
+/**
+ * Below this phase √|s|·L across a slice its ψ is sampled as u0 c(x) + m p0 S(x): the other forms
+ * lose about ε/(√|s|·L) of relative accuracy to cancellation, 2e-14 at this bound.
+ */
+const NEAR_FLAT_PHASE = 1e-2;
 /** Points between direct evaluations of a rotation while sampling (rounding grows with the steps taken). */
 const RESEED = 64;
 
@@ -284,9 +289,10 @@ function sweepMatched(d: Unpacked, E: number, j: number, out: Sweep, st: Carry):
   st.u = 1;
   st.p = -Math.sqrt(Math.max(0, mRe * (d.VR - E) / C)) / mRe;
   st.zeros = 0;
-  // θ_R(z_R) = atan2(mRe, −kR) lies in (π/2, π], the reduced angle of (1, −kR/mRe).
+  // θ_R(z_R) = atan2(mRe, −kR) lies in [π/2, π), the reduced angle of (1, −kR/mRe).
   for (let i = d.n - 1; i >= j; i--) carry(d, E, i, -1, st);
-  const thetaRj = reducedAngle(st.u, st.p) - st.zeros * PI;
+  // A zero exactly at z_j is counted by carry and sits at θ_R = −(zeros − 1)π, not at the reduced 0 less zeros·π.
+  const thetaRj = st.u === 0 ? -(st.zeros - 1) * PI : reducedAngle(st.u, st.p) - st.zeros * PI;
   out.count = -1;
   out.angle = thetaL - thetaRj;
 }
@@ -760,7 +766,11 @@ export function wavefunction(profile: BandProfile, energy: number, z_nm: Float64
     const L = width[i]!;
     const a = value(fromA, i) * Math.exp(scale(fromA, i) - eMax) * inv;
     const b = ms[i]! * slope(fromA, i) * Math.exp(scale(fromA, i) - eMax) * inv;
-    if (s > 0) {
+    if (Math.sqrt(Math.abs(s)) * L < NEAR_FLAT_PHASE) {
+      // Nearly flat (E within a hair of V): the amplitude–phase and exponential forms would divide b
+      // by a vanishing k or κ and cancel; u0 c(x) + m p0 S(x) with the series of c and S does not.
+      kind[i] = NEAR_FLAT; kk[i] = s; c0[i] = a; c1[i] = b;
+    } else if (s > 0) {
       const k = Math.sqrt(s);
       kind[i] = OSCILLATORY; kk[i] = k; c0[i] = Math.hypot(a, b / k); c1[i] = Math.atan2(b / k, a);
     } else if (s < 0 && Math.sqrt(-s) * L >= 1) {
@@ -772,11 +782,9 @@ export function wavefunction(profile: BandProfile, energy: number, z_nm: Float64
       const u0 = value(fromA, i) * Math.exp(scale(fromA, i) - eMax) * inv;
       const u1 = value(fromA, i + 1) * Math.exp(scale(fromA, i + 1) - eMax) * inv;
       kind[i] = LONG_EVANESCENT; kk[i] = kap; c0[i] = (u0 - u1 * d) / q; c1[i] = (u1 - u0 * d) / q;
-    } else if (s < 0) {
+    } else {
       const kap = Math.sqrt(-s);
       kind[i] = SHORT_EVANESCENT; kk[i] = kap; c0[i] = 0.5 * (a + b / kap); c1[i] = 0.5 * (a - b / kap);
-    } else {
-      kind[i] = FLAT; c0[i] = a; c1[i] = b;
     }
   }
 
@@ -787,7 +795,7 @@ export function wavefunction(profile: BandProfile, energy: number, z_nm: Float64
       case OSCILLATORY: return c0[i]! * Math.cos(k * x - c1[i]!);
       case SHORT_EVANESCENT: { const e = Math.exp(k * x); return c0[i]! * e + c1[i]! / e; }
       case LONG_EVANESCENT: return c0[i]! * Math.exp(-k * x) + c1[i]! * Math.exp(-k * (width[i]! - x));
-      default: return c0[i]! + c1[i]! * x;
+      default: return c0[i]! * cFun(k, x) + c1[i]! * sFun(k, x);
     }
   };
   const psi = new Float64Array(z_nm.length);

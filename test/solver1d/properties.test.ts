@@ -154,6 +154,27 @@ describe('wavefunction properties', () => {
     }), { numRuns: 20, seed: 17, endOnFailure: true });
   });
 
+  it('a slice whose potential lies within 1e-13 eV of the state energy gives ψ within 1e-11 of the flat-slice ψ (E = V: ψ″ = 0), both grids', () => {
+    // An asymmetric well (so ψ has a slope in the middle slice) whose middle slice's V is moved onto
+    // the ground-state energy by fixed-point iteration, then moved off by dV, which changes ψ by
+    // about dV/(energy scale) only. Amplitude–phase or exponential forms with k or κ ~ √dV lose
+    // ~ε/(kL) to cancellation (1.5e-7 of max |ψ| here at dV = 1e-16 eV before the near-flat form).
+    const withMiddle = (v: number) => profileOf([layer(3, 0, 0.067), layer(4, v, 0.067), layer(2, 0.01, 0.07)], outer(0.3, 0.09));
+    let v = 0.02;
+    for (let it = 0; it < 60; it++) v = solveBand(withMiddle(v)).states[0]!.energy;
+    const z = uniformGrid(-2, 12, 0.01);
+    for (const grid of [z, Float64Array.from(z, (x, g) => x + (g % 2) * 1e-7)]) {
+      const flat = wavefunction(withMiddle(v), v, grid);
+      const scale = Math.max(...flat.map(Math.abs));
+      for (const dV of [1e-16, -1e-16, 1e-14, -1e-14, 1e-13]) {
+        const psi = wavefunction(withMiddle(v + dV), v, grid);
+        let worst = 0;
+        for (let g = 0; g < grid.length; g++) worst = Math.max(worst, Math.abs(psi[g]! - flat[g]!));
+        expect(worst / scale, message('max |ψ(V = E + dV) − ψ(V = E)| / max |ψ|', { dV, uniform: grid === z }, worst / scale, 0, 1e-11)).toBeLessThan(1e-11);
+      }
+    }
+  });
+
   it('a state behind thick barriers (κL ≈ 60 per slice) is still normalised and finite', () => {
     const p = profileOf([layer(40, 1.0, 0.1), layer(6, 0, 0.067), layer(40, 1.0, 0.1)], outer(1.0, 0.1));
     const s = solveBand(p).states;
