@@ -1,5 +1,5 @@
 /** The `wellsmith` command line: parses arguments and dispatches to one file per command. */
-import yargs, { type ArgumentsCamelCase, type Argv } from 'yargs';
+import yargs from 'yargs';
 import { EXIT, type Outcome } from './exit.js';
 import { runSolve } from './solve.js';
 import { runMaterials } from './materials.js';
@@ -18,25 +18,17 @@ const reportCommand = () => import('./report.js');
 const campaignCommand = () => import('./campaign.js');
 const mergeCommand = () => import('./merge.js');
 
-type Run = (a: never) => Outcome | Promise<Outcome>;
-
 /** Runs the command line and returns what to print; main() below does the printing. */
 export async function cli(argv: string[]): Promise<Outcome> {
-  // Commands run after parsing, not as yargs handlers: yargs renders (and caches) the whole help
-  // text of a command before it runs its handler, tens of milliseconds of every run.
-  const runs = new Map<string, Run>();
-  const own = <U>(command: string, describe: string, builder: (y: Argv) => Argv<U>, run: (a: ArgumentsCamelCase<U>) => Outcome | Promise<Outcome>): [string, string, (y: Argv) => Argv<U>] => {
-    runs.set(command.split(' ')[0]!, run as Run);
-    return [command, describe, builder];
-  };
+  let outcome: Outcome = { code: EXIT.ok, stdout: '', stderr: '' };
   let usage: string | undefined;
   // yargs lays out a command's whole help text on every run (to cache it): only --help shows it,
   // so other runs get it unwrapped and without the long epilogue, at a fraction of the cost.
   const wantsHelp = argv.some((a) => a === '--help' || a === '-h');
-  const parsed = await yargs(argv)
+  await yargs(argv)
     .scriptName('wellsmith')
     .usage('$0 <command> [options]\n\nInverse design of semiconductor quantum wells and wires.')
-    .command(...own('solve <spec>', 'states, transitions and density of states of a fixed structure', (y) =>
+    .command('solve <spec>', 'states, transitions and density of states of a fixed structure', (y) =>
       y.positional('spec', { type: 'string', demandOption: true, describe: 'spec file (YAML or JSON)' })
         .option('json', { type: 'boolean', default: false, describe: 'machine-readable output on stdout' })
         .option('wavefunctions', { type: 'boolean', default: false, describe: 'include sampled wavefunctions in --json' })
@@ -44,9 +36,9 @@ export async function cli(argv: string[]): Promise<Outcome> {
         .option('plot', { type: 'string', describe: 'also write the band diagram with states to this .svg file' }),
     async (a) => {
       const args = { spec: a.spec!, json: a.json, wavefunctions: a.wavefunctions, maps: a.maps };
-      return a.plot === undefined ? runSolve(args) : (await reportCommand()).runSolvePlot(args, a.plot);
-    }))
-    .command(...own('design <spec>', 'inverse design: ranked, growable designs for the spec\'s targets', (y) =>
+      outcome = a.plot === undefined ? runSolve(args) : await (await reportCommand()).runSolvePlot(args, a.plot);
+    })
+    .command('design <spec>', 'inverse design: ranked, growable designs for the spec\'s targets', (y) =>
       y.positional('spec', { type: 'string', demandOption: true, describe: 'spec file with vary: and targets:' })
         .option('starts', { type: 'number', describe: `Nelder–Mead starts (Latin hypercube); default ${DEFAULT_DESIGN_OPTIONS.starts} for stacks, ${DEFAULT_WIRE_DESIGN_OPTIONS.starts} for wires` })
         .option('seed', { type: 'number', default: DEFAULT_DESIGN_OPTIONS.seed, describe: 'seed of the start design' })
@@ -58,8 +50,8 @@ export async function cli(argv: string[]): Promise<Outcome> {
         .option('json', { type: 'boolean', default: false, describe: 'machine-readable output on stdout' })
         .option('robust', { type: 'boolean', default: false, describe: `rank the top designs by Monte Carlo growth yield (${ROBUST_SAMPLES} samples, default growth errors of "wellsmith tolerance"), then by loss` })
         .epilogue(wantsHelp ? TARGET_HELP : ''),
-    (a) => runDesign({ spec: a.spec!, starts: a.starts, seed: a.seed, top: a.top, workers: a.workers, step: a.step, evaluations: a.evaluations, out: a.out, json: a.json, robust: a.robust })))
-    .command(...own('tolerance <spec>', 'growth-error sensitivities, Monte Carlo yield and monolayer-island lines of one design', (y) =>
+    async (a) => { outcome = await runDesign({ spec: a.spec!, starts: a.starts, seed: a.seed, top: a.top, workers: a.workers, step: a.step, evaluations: a.evaluations, out: a.out, json: a.json, robust: a.robust }); })
+    .command('tolerance <spec>', 'growth-error sensitivities, Monte Carlo yield and monolayer-island lines of one design', (y) =>
       y.positional('spec', { type: 'string', demandOption: true, describe: 'spec with nominal values (e.g. a design-N.yaml written by design --out)' })
         .option('samples', { type: 'number', default: DEFAULT_TOLERANCE.samples, describe: 'Monte Carlo samples (0 skips the yield)' })
         .option('seed', { type: 'number', default: DEFAULT_TOLERANCE.seed, describe: 'seed of the samples' })
@@ -72,23 +64,25 @@ export async function cli(argv: string[]): Promise<Outcome> {
         .option('x-sigma', { type: 'number', default: DEFAULT_TOLERANCE.growth.compositionSigma, describe: 'Monte Carlo: alloy-fraction σ per layer' })
         .option('rate-sigma', { type: 'number', default: DEFAULT_TOLERANCE.growth.rateSigmaPercent, describe: 'Monte Carlo: growth-rate σ (%)' })
         .option('json', { type: 'boolean', default: false, describe: 'machine-readable output on stdout' }),
-    (a) => runTolerance({ spec: a.spec!, samples: a.samples, seed: a.seed, workers: a.workers, dx: a.dx, rate: a.rate, dT: a.dT,
-      mlTable: a.ml, mlSigma: a['ml-sigma'], xSigma: a['x-sigma'], rateSigma: a['rate-sigma'], json: a.json })))
-    .command(...own('report <input>', 'self-contained HTML report of a spec, a design, a solve/design/tolerance --json file or a campaign run folder', (y) =>
+    async (a) => {
+      outcome = await runTolerance({ spec: a.spec!, samples: a.samples, seed: a.seed, workers: a.workers, dx: a.dx, rate: a.rate, dT: a.dT,
+        mlTable: a.ml, mlSigma: a['ml-sigma'], xSigma: a['x-sigma'], rateSigma: a['rate-sigma'], json: a.json });
+    })
+    .command('report <input>', 'self-contained HTML report of a spec, a design, a solve/design/tolerance --json file or a campaign run folder', (y) =>
       y.positional('input', { type: 'string', demandOption: true, describe: 'spec file (solved, targets scored) or a JSON file from solve/design --json' })
         .option('out', { type: 'string', describe: 'HTML file to write (default: INPUT with .html)' })
         .option('growth-sheet', { type: 'string', describe: 'also write the growth sheet (per-layer shutter times) as CSV; needs growth.rates in the spec' })
         .option('tolerance', { type: 'boolean', default: false, describe: 'add the growth-tolerance section (sensitivities, Monte Carlo yield, island lines); spec inputs with targets' })
         .option('samples', { type: 'number', default: REPORT_SAMPLES, describe: 'Monte Carlo samples of --tolerance' })
         .option('workers', { type: 'number', default: defaultWorkers(), describe: 'worker threads of --tolerance' }),
-    async (a) => (await reportCommand()).runReport({ input: a.input!, out: a.out, growthSheet: a.growthSheet, tolerance: a.tolerance, samples: a.samples, workers: a.workers })))
-    .command(...own('materials [formula]', 'material parameters at a temperature and on a substrate', (y) =>
+    async (a) => { outcome = await (await reportCommand()).runReport({ input: a.input!, out: a.out, growthSheet: a.growthSheet, tolerance: a.tolerance, samples: a.samples, workers: a.workers }); })
+    .command('materials [formula]', 'material parameters at a temperature and on a substrate', (y) =>
       y.positional('formula', { type: 'string', describe: 'e.g. In0.2Ga0.8As (omit to list the binaries)' })
         .option('on', { type: 'string', describe: 'substrate the layer is strained on, e.g. GaAs' })
         .option('temperature', { type: 'string', default: '300 K', describe: 'temperature, e.g. "77 K"' })
         .option('json', { type: 'boolean', default: false, describe: 'machine-readable output on stdout' }),
-    (a) => runMaterials({ formula: a.formula, on: a.on, temperature: a.temperature, json: a.json })))
-    .command(...own('campaign <file>', 'run or resume a campaign of design jobs into a run store (or write Slurm scripts for it)', (y) =>
+    (a) => { outcome = runMaterials({ formula: a.formula, on: a.on, temperature: a.temperature, json: a.json }); })
+    .command('campaign <file>', 'run or resume a campaign of design jobs into a run store (or write Slurm scripts for it)', (y) =>
       y.positional('file', { type: 'string', demandOption: true, describe: 'campaign file (YAML or JSON): spec, sweep, design options' })
         .option('out', { type: 'string', describe: 'run folder holding campaign.sqlite (default: FILE without extension + ".run"); rerun to resume' })
         .option('workers', { type: 'number', default: defaultWorkers(), describe: 'worker threads' })
@@ -96,11 +90,11 @@ export async function cli(argv: string[]): Promise<Outcome> {
         .option('export', { type: 'string', choices: ['csv'], describe: 'also write all ranked designs to OUT/designs.csv' })
         .option('slurm', { type: 'number', describe: 'write a Slurm job array of N shards, a dependent merge job and submit.sh to OUT/slurm; runs nothing' })
         .option('json', { type: 'boolean', default: false, describe: 'machine-readable output on stdout' }),
-    async (a) => (await campaignCommand()).runCampaignCommand({ file: a.file!, out: a.out, workers: a.workers, shard: a.shard, export: a.export, slurm: a.slurm, json: a.json })))
-    .command(...own('merge <out> <dirs..>', 'join shard run stores into the run store of OUT (idempotent)', (y) =>
+    async (a) => { outcome = await (await campaignCommand()).runCampaignCommand({ file: a.file!, out: a.out, workers: a.workers, shard: a.shard, export: a.export, slurm: a.slurm, json: a.json }); })
+    .command('merge <out> <dirs..>', 'join shard run stores into the run store of OUT (idempotent)', (y) =>
       y.positional('out', { type: 'string', demandOption: true, describe: 'run folder to merge into (created if missing)' })
         .positional('dirs', { type: 'string', array: true, demandOption: true, describe: 'shard run folders' }),
-    async (a) => (await mergeCommand()).runMerge({ out: a.out!, dirs: a.dirs! })))
+    async (a) => { outcome = (await mergeCommand()).runMerge({ out: a.out!, dirs: a.dirs! }); })
     .demandCommand(1, 'give a command: solve, design, tolerance, campaign, merge, report, materials (see --help)')
     .strict()
     .help()
@@ -113,8 +107,5 @@ export async function cli(argv: string[]): Promise<Outcome> {
     })
     .exitProcess(false)
     .parseAsync();
-  if (usage !== undefined) return { code: EXIT.input, stdout: '', stderr: usage };
-  // --help and --version have been printed by yargs.
-  const run = parsed.help === true || parsed.version === true ? undefined : runs.get(String(parsed._[0]));
-  return run ? run(parsed as never) : { code: EXIT.ok, stdout: '', stderr: '' };
+  return usage === undefined ? outcome : { code: EXIT.input, stdout: '', stderr: usage };
 }
