@@ -53,16 +53,20 @@ let shared: {
   loaded: Promise<unknown> | undefined;
   /** Threads that have answered a task (their ids): loaded and working. */
   readonly answered: Set<number>;
+  /** Tasks sent and not yet answered, including ones a call no longer waits for (this thread ran them first). */
+  readonly inflight: Set<Promise<unknown>>;
 } | undefined;
 
 /**
  * Destroying a thread while it is still loading the engine can abort the process inside V8's
- * module instantiation, so a pool is destroyed only after its first task has come back (the
- * thread has loaded), or after LOAD_WAIT_MS at most.
+ * module instantiation, and destroying one that is still computing a task makes piscina throw
+ * (uncaught) when its answer arrives, so a pool is destroyed only after its first task has come
+ * back (the thread has loaded) and its tasks in flight have ended, or after LOAD_WAIT_MS at most.
  */
 const LOAD_WAIT_MS = 5000;
-async function destroyLoaded(entry: { readonly pool: Pool; loaded: Promise<unknown> | undefined }): Promise<void> {
-  if (entry.loaded) await Promise.race([entry.loaded.catch(() => undefined), new Promise((resolve) => setTimeout(resolve, LOAD_WAIT_MS).unref())]);
+async function destroyLoaded(entry: { readonly pool: Pool; loaded: Promise<unknown> | undefined; readonly inflight: Set<Promise<unknown>> }): Promise<void> {
+  const settled = Promise.allSettled([...(entry.loaded ? [entry.loaded] : []), ...entry.inflight]);
+  await Promise.race([settled, new Promise((resolve) => setTimeout(resolve, LOAD_WAIT_MS).unref())]);
   await entry.pool.destroy();
 }
 
@@ -81,7 +85,7 @@ function threadPool(Piscina: typeof import('piscina').Piscina, threads: number):
     // moment the first ends, instead of waiting for this thread to pause and hand it over.
     concurrentTasksPerWorker: 2,
   });
-  shared = { threads, pool, loaded: undefined, answered: new Set() };
+  shared = { threads, pool, loaded: undefined, answered: new Set(), inflight: new Set() };
   return pool;
 }
 
@@ -178,9 +182,15 @@ export async function runTasks(tasks: readonly WorkerTask[], options: PoolOption
       for (let i = take(); i >= 0 && done < tasks.length; i = take()) {
         state[i] = 1;
         const run = p.run(tasks[i]!);
-        if (shared?.pool === p) shared.loaded ??= run;
+        const entry = shared?.pool === p ? shared : undefined;
+        if (entry) {
+          entry.loaded ??= run;
+          entry.inflight.add(run);
+          const forget = (): void => { entry.inflight.delete(run); };
+          run.then(forget, forget);
+        }
         const response = await run.catch((e: unknown) => (state[i] === 2 ? null : Promise.reject(e)));
-        if (response && shared?.pool === p) shared.answered.add(response.thread);
+        if (response && entry) entry.answered.add(response.thread);
         if (response && state[i] !== 2) {
           options.onThreadResult?.(i);
           finish(i, unwrap(response));
