@@ -3,7 +3,6 @@
  */
 import fc from 'fast-check';
 import { describe, expect, it } from 'vitest';
-import { InputError } from '../../engine/errors.js';
 import { alloyFromName, formatFormula, parseFormula, type Alloy } from '../../materials/index.js';
 import { expectClose, expectInputError } from './check.js';
 

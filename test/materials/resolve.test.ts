@@ -2,7 +2,6 @@
  * resolveMaterial and customMaterial: trade facts, the Varshni law, closed-form masses, and bad input.
  */
 import { describe, expect, it } from 'vitest';
-import { InputError } from '../../engine/errors.js';
 import { customMaterial, parseFormula, resolveMaterial, type Alloy } from '../../materials/index.js';
 import { expectClose, expectInputError } from './check.js';
 
