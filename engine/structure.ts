@@ -9,11 +9,10 @@ import type { LayerSpec, Spec, VariableSpec } from './spec/schema.js';
 import { parseField, parseLength, parseTemperature, splitQuantity, parseEnergy, type Length } from './spec/units.js';
 import { alloyFromName, customMaterial, formatFormula, GROUP_III, GROUP_V, parseFormula, resolveMaterial, type Alloy } from '../materials/index.js';
 import type { ResolvedMaterial } from '../materials/types.js';
+import { staticPermittivity } from '../materials/dielectric.js';
+import { edgesOf, interfaceOffsets, shareEdges, type InterfaceOffset, type OffsetRule, type ShareGap } from './lineup.js';
 
-/** How band edges were placed on one energy scale; recorded in every output. */
-export type OffsetRule =
-  | { readonly kind: 'absolute'; readonly source: string }
-  | { readonly kind: 'conduction-share'; readonly share: number; readonly reference: string };
+export type { OffsetRule } from './lineup.js';
 
 /** Band edges and masses of one point of a layer, as the profile builder needs them. */
 export interface LayerBands {
@@ -45,6 +44,8 @@ export interface ResolvedLayer {
   readonly monolayer_nm: number;
   /** Material at the layer's centre (graded layers: the mid composition). */
   readonly material: ResolvedMaterial;
+  /** Static relative permittivity ε_s (materials/dielectric.ts, or the custom material's); NaN when unknown. */
+  readonly permittivity: number;
   /**
    * Band edges after the offset rule, sampled evenly from the layer's start to its end: one sample
    * for a uniform layer, GRADE_SAMPLES for a graded one (bowing makes edges non-linear in
@@ -60,6 +61,8 @@ export interface Structure {
   readonly field_kV_per_cm: number;
   readonly offsetRule: OffsetRule;
   readonly layers: readonly ResolvedLayer[];
+  /** Strained band steps at every heterointerface, with the conduction share of the gap step. */
+  readonly interfaces: readonly InterfaceOffset[];
   /** Values of the spec's free variables that produced this structure (nm, ML or fraction). */
   readonly variables: Readonly<Record<string, number>>;
   readonly total_nm: number;
@@ -321,6 +324,7 @@ interface LayerPart {
   readonly composition: LayerComposition;
   readonly formula: string;
   readonly material: ResolvedMaterial;
+  readonly permittivity: number;
   readonly bands: readonly LayerBands[];
 }
 
@@ -362,8 +366,11 @@ function settingOf(spec: Spec, temperature_K: number): Setting {
   const refText = spec.offsets?.reference ?? spec.substrate;
   if (refText === undefined) throw new InputError('bad-value', 'offsets.reference: the conduction-share rule needs a reference material; give offsets.reference or a substrate', 'offsets.reference');
   const refAlloy = spec.materials?.[refText] ? refText : parseFormulaAt(refText, 'offsets.reference');
-  const reference = resolveComposition(spec, refAlloy, temperature_K, null, 'offsets.reference');
-  return { substrate, reference, offsetRule: { kind: 'conduction-share', share, reference: reference.formula } };
+  const gap: ShareGap = spec.offsets?.gap ?? 'unstrained';
+  // The strained rule compares strained gaps, so its reference is grown on the substrate too.
+  const onSubstrate = gap === 'strained' && typeof refAlloy !== 'string' ? substrate : null;
+  const reference = resolveComposition(spec, refAlloy, temperature_K, onSubstrate, 'offsets.reference');
+  return { substrate, reference, offsetRule: { kind: 'conduction-share', share, reference: reference.formula, gap } };
 }
 
 /** Whether a layer's composition depends on a free variable (a fraction that names one). */
@@ -385,23 +392,14 @@ export function buildStructure(spec: Spec, values: Readonly<Record<string, numbe
   const field_kV_per_cm = num(spec.field, parseField, 'field', 0);
   if (!(Math.abs(field_kV_per_cm) <= MAX_FIELD_KV_PER_CM)) throw new InputError('bad-value', `field: ${spec.field} is beyond ±${MAX_FIELD_KV_PER_CM} kV/cm, above the breakdown field of these materials; give a field below it`, 'field');
   const { substrate, reference, offsetRule } = memo(cache.settings, String(temperature_K), () => settingOf(spec, temperature_K));
-  const share = spec.offsets?.conduction_share;
   const ctx: Context = { spec, vars, values, temperature_K, substrate };
 
   const bandsOf = (source: Alloy | string, field: string): { bands: LayerBands; material: ResolvedMaterial } => {
     const m = resolveComposition(spec, source, temperature_K, typeof source === 'string' ? null : substrate, field);
     let { Ec, Ehh, Elh } = m;
-    if (reference && typeof source !== 'string') {
-      // Share rule: place the unstrained edges by Q·ΔEg about the reference, then add this layer's strain shifts.
-      const free = resolveComposition(spec, source, temperature_K, null, field);
-      const dEg = free.EgG - reference.EgG;
-      const EvRef = Math.max(reference.Ehh, reference.Elh);
-      const EcFree = reference.Ec + share! * dEg;
-      const EvFree = EvRef - (1 - share!) * dEg;
-      const EvFreeTable = Math.max(free.Ehh, free.Elh);
-      Ec = EcFree + (m.Ec - free.Ec);
-      Ehh = EvFree + (m.Ehh - EvFreeTable);
-      Elh = EvFree + (m.Elh - EvFreeTable);
+    if (reference && offsetRule.kind === 'conduction-share' && typeof source !== 'string') {
+      const free = offsetRule.gap === 'unstrained' ? edgesOf(resolveComposition(spec, source, temperature_K, null, field)) : edgesOf(m);
+      ({ Ec, Ehh, Elh } = shareEdges(offsetRule, m, free, edgesOf(reference)));
     }
     const gap = Ec - Math.max(Ehh, Elh);
     const custom = typeof source === 'string' ? spec.materials![source]!.nonparabolicity : undefined;
@@ -417,7 +415,9 @@ export function buildStructure(spec: Spec, values: Readonly<Record<string, numbe
       ? Array.from({ length: GRADE_SAMPLES }, (_, k) => bandsOf(mixAlloys(composition.from, composition.to, k / (GRADE_SAMPLES - 1)), `${field}.material`).bands)
       : [centre.bands];
     const formula = composition.kind === 'graded' ? `${formatFormula(composition.from)}→${formatFormula(composition.to)}` : centre.material.formula;
-    return { composition, formula, material: centre.material, bands };
+    // ε_s is linear in composition, so a grade's mid value is its mean.
+    const permittivity = typeof mid === 'string' ? spec.materials![mid]!.permittivity ?? NaN : staticPermittivity(mid) ?? NaN;
+    return { composition, formula, material: centre.material, permittivity, bands };
   };
 
   let total = 0;
@@ -432,7 +432,7 @@ export function buildStructure(spec: Spec, values: Readonly<Record<string, numbe
       const composition = perturbComposition(base.composition, dx);
       part = composition === base.composition ? base : partOf(composition, i);
     }
-    const { composition, formula, material, bands } = part;
+    const { composition, formula, material, permittivity, bands } = part;
 
     let length: Length;
     const t = layer.thickness;
@@ -465,6 +465,7 @@ export function buildStructure(spec: Spec, values: Readonly<Record<string, numbe
       monolayers: ml > 0 ? thickness_nm / ml : NaN,
       monolayer_nm: ml,
       material,
+      permittivity,
       bands,
     };
   });
@@ -475,6 +476,7 @@ export function buildStructure(spec: Spec, values: Readonly<Record<string, numbe
     field_kV_per_cm,
     offsetRule,
     layers,
+    interfaces: interfaceOffsets(layers.map((l) => ({ index: l.index, label: l.label, formula: l.formula, first: l.bands[0]!, last: l.bands[l.bands.length - 1]! }))),
     variables: { ...values },
     total_nm: total,
   };

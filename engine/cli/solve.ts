@@ -2,6 +2,7 @@
 import { loadSpecFile } from '../spec/load.js';
 import { solve, BANDS, type SolveResult } from '../solve.js';
 import type { Structure } from '../structure.js';
+import { describeOffsetRule, type InterfaceOffset } from '../lineup.js';
 import { EXIT, failure, success, type Outcome } from './exit.js';
 import { fixed, sig, table, toJson } from './format.js';
 import { describeWire, wireJson } from '../wire/describe.js';
@@ -20,15 +21,22 @@ export function solveJson(r: SolveResult, withWavefunctions: boolean): unknown {
 }
 
 export function describeStructure(s: Structure): string {
-  const offsets = s.offsetRule.kind === 'absolute' ? s.offsetRule.source : `conduction-band share ${s.offsetRule.share} of ΔEg relative to ${s.offsetRule.reference}`;
-  const head = `T = ${s.temperature_K} K · substrate ${s.substrate ?? 'none (unstrained)'} · field ${s.field_kV_per_cm} kV/cm\noffsets: ${offsets}`;
+  const head = `T = ${s.temperature_K} K · substrate ${s.substrate ?? 'none (unstrained)'} · field ${s.field_kV_per_cm} kV/cm\noffsets: ${describeOffsetRule(s.offsetRule)}`;
   const rows = s.layers.map((l) => {
     const b = l.bands[Math.floor(l.bands.length / 2)]!;
     return [String(l.index + 1), l.label, l.formula, fixed(l.thickness_nm, 3), fixed(l.monolayers, 2), fixed(b.Ec, 4), fixed(b.Ehh, 4), fixed(b.Elh, 4),
       fixed(l.material.strain_par * 100, 3), l.material.criticalThickness_nm === Infinity ? '∞' : fixed(l.material.criticalThickness_nm, 1)];
   });
-  return `${head}\n${table(['#', 'layer', 'material', 'thickness nm', 'ML', 'Ec eV', 'Ehh eV', 'Elh eV', 'ε∥ %', 'h_c nm'], rows)}`;
+  const layers = table(['#', 'layer', 'material', 'thickness nm', 'ML', 'Ec eV', 'Ehh eV', 'Elh eV', 'ε∥ %', 'h_c nm'], rows);
+  if (s.interfaces.length === 0) return `${head}\n${layers}`;
+  return `${head}\n${layers}\n\nInterfaces (strained edges, upper layer minus lower; Qc = ΔEc/ΔEg of the strained gaps)\n${table(INTERFACE_HEADER, s.interfaces.map(interfaceRow))}`;
 }
+
+export const INTERFACE_HEADER = ['layers', 'ΔEc meV', 'ΔEhh meV', 'ΔElh meV', 'ΔEg meV', 'Qc', 'hh', 'lh'];
+
+/** One interface as table cells (shared by the terminal table and the report). */
+export const interfaceRow = (i: InterfaceOffset): string[] => [`${i.left + 1}|${i.right + 1}`, fixed(i.dEc_meV, 1), fixed(i.dEhh_meV, 1), fixed(i.dElh_meV, 1), fixed(i.dEg_meV, 1),
+  i.conduction_share === null ? '–' : fixed(i.conduction_share, 3), `type ${i.heavy_hole_type}`, `type ${i.light_hole_type}`];
 
 /** Interband lines weaker than this are left out of the human table. */
 const WEAK_OVERLAP2 = 0.01;

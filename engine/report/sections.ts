@@ -5,6 +5,8 @@
  */
 import { BANDS, type SolveResult } from '../solve.js';
 import { fixed, sig } from '../cli/format.js';
+import { describeOffsetRule } from '../lineup.js';
+import { INTERFACE_HEADER, interfaceRow } from '../cli/solve.js';
 import type { Scored } from '../../objectives/index.js';
 import type { Evaluation } from '../../objectives/types.js';
 import { figureHtml, htmlTable, type Section } from './html.js';
@@ -25,11 +27,11 @@ export function structureSection(r: SolveResult, id = 'structure'): Section {
     const b = l.bands[Math.floor(l.bands.length / 2)]!;
     return [String(l.index + 1), l.label, l.formula, fixed(l.thickness_nm, 3), fixed(l.monolayers, 2), fixed(b.Ec, 4), fixed(b.Ehh, 4), fixed(b.Elh, 4), fixed(l.material.strain_par * 100, 3)];
   });
-  const offsets = s.offsetRule.kind === 'absolute' ? s.offsetRule.source : `conduction-band share ${s.offsetRule.share} of ΔEg relative to ${s.offsetRule.reference}`;
+  const interfaces = s.interfaces.length === 0 ? '' : `\n<h3>Interfaces</h3>\n<p>Steps of the strained edges, upper layer minus lower (meV); Qc = ΔEc/ΔEg of the strained gaps, the share measured offsets quote; type I when the hole band is higher on the side the electrons prefer.</p>\n${htmlTable(INTERFACE_HEADER, s.interfaces.map(interfaceRow), [1, 2, 3, 4, 5])}`;
   return {
     id, title: 'Layer stack',
-    lead: `T = ${s.temperature_K} K · substrate ${s.substrate ?? 'none (unstrained)'} · field ${s.field_kV_per_cm} kV/cm · offsets: ${offsets} · parameters: ${r.parameterSet}. Band edges at each layer's centre.`,
-    html: htmlTable(['#', 'layer', 'material', 'thickness (nm)', 'ML', 'Ec (eV)', 'Ehh (eV)', 'Elh (eV)', 'ε∥ (%)'], rows, [0, 3, 4, 5, 6, 7, 8]),
+    lead: `T = ${s.temperature_K} K · substrate ${s.substrate ?? 'none (unstrained)'} · field ${s.field_kV_per_cm} kV/cm · offsets: ${describeOffsetRule(s.offsetRule)} · parameters: ${r.parameterSet}. Band edges at each layer's centre.`,
+    html: `${htmlTable(['#', 'layer', 'material', 'thickness (nm)', 'ML', 'Ec (eV)', 'Ehh (eV)', 'Elh (eV)', 'ε∥ (%)'], rows, [0, 3, 4, 5, 6, 7, 8])}${interfaces}`,
   };
 }
 

@@ -37,6 +37,7 @@ export const customMaterialSchema = z
     mlh_inplane: z.number().positive().optional(),
     lattice: quantity.optional().describe('Lattice constant (nm or Å); sets the monolayer'),
     nonparabolicity: quantity.optional().describe('Electron non-parabolicity α (1/eV); default 1/Eg'),
+    permittivity: z.number().positive().optional().describe('Static relative permittivity ε_s, for the exciton estimate'),
   })
   .strict();
 
@@ -52,6 +53,7 @@ export const offsetsSchema = z
   .object({
     conduction_share: z.number().gt(0).lt(1).describe('ΔEc/ΔEg at each heterointerface, relative to the reference material'),
     reference: z.string().optional().describe('Reference material for the share rule; default the substrate'),
+    gap: z.enum(['unstrained', 'strained']).optional().describe('Which gap difference the share divides: the relaxed materials\' (default) or the strained edges as grown on the substrate, as measured offsets of strained wells are quoted'),
   })
   .strict();
 

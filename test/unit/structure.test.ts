@@ -19,7 +19,7 @@ stack:
     const dEc = b.Ec - w.Ec;
     const dEv = w.Ehh - b.Ehh;
     expect(Math.abs(dEc / (dEc + dEv) - 0.65)).toBeLessThan(1e-12);
-    expect(solve(spec).structure.offsetRule).toEqual({ kind: 'conduction-share', share: 0.65, reference: 'GaAs' });
+    expect(solve(spec).structure.offsetRule).toEqual({ kind: 'conduction-share', share: 0.65, reference: 'GaAs', gap: 'unstrained' });
   });
 });
 
