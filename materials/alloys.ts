@@ -1,141 +1,158 @@
 /**
- * Alloy parameters by the interpolation scheme of VMR2001 (I. Vurgaftman, J. R. Meyer,
- * L. R. Ram-Mohan, J. Appl. Phys. 89, 5815 (2001), Sec. IV–V): ternaries with bowing, quaternaries
- * from their bounding ternaries (bowing table in ternaries.ts).
+ * Alloy parameters from the VMR2001 binaries and ternary bowings (I. Vurgaftman, J. R. Meyer,
+ * L. R. Ram-Mohan, J. Appl. Phys. 89, 5815 (2001), Sec. IV; table in ternaries.ts), with one
+ * quadratic interpolation for ternaries and quaternaries alike (see interpolate).
+ *
+ * Why not VMR2001's quaternary scheme: its weighted mean of the bounding ternaries (after
+ * T. H. Glisson et al., J. Electron. Mater. 7, 1 (1978), both from memory) keeps only a share
+ * x(1−x)/[x(1−x) + y(1−y)] of each ternary bowing inside the quaternary. With the VMR2001 bowings
+ * it put lattice-matched InGaAsP on InP 37–61 meV above R. E. Nahory et al., Appl. Phys. Lett. 33,
+ * 659 (1978) over y = 0.2–0.8, and (AlGa)InAs on InP up to 41 meV above D. Olego et al., Appl.
+ * Phys. Lett. 41, 476 (1982). The additive form below, with the same bowings and no fitted
+ * parameter, stays within 17 meV of Nahory and 23 meV of Olego (test/materials/published.test.ts).
  */
 import { binaryOf } from './binaries.js';
 import { formatFormula, type Alloy } from './formula.js';
-import { latticeAt, varshni } from './temperature.js';
-import { FIELDS, findTernary, type Field, type Ternary, type Values } from './ternaries.js';
-import type { BinaryParams } from './types.js';
+import { gapsAt, latticeAt } from './temperature.js';
+import { FIELDS, findTernary, type Field, type HoleMassBowing, type Ternary, type Values } from './ternaries.js';
+import type { BinaryParams, LatticeModel } from './types.js';
 
 type View = (b: BinaryParams) => Values;
 
-/** Ternary value: x P_first + (1 − x) P_second − x(1 − x) C(x) (VMR2001 eq. for ternaries),
- * with fractions given for both mixed elements so that zero-fraction ends are exact. */
-function ternaryValues(t: Ternary, fractions: Readonly<Record<string, number>>, view: View): Values {
-  const x = fractions[t.first]!;
-  const y = fractions[t.second]!;
-  const bin = (el: string): Values => view((t.side === 'III' ? binaryOf(el, t.common) : binaryOf(t.common, el))!);
-  const P = bin(t.first);
-  const Q = bin(t.second);
-  const out = {} as Record<Field, number>;
-  for (const f of FIELDS) {
-    const c = t.bow[f];
-    out[f] = x * P[f] + y * Q[f] - (c ? x * y * (c.c0 + c.c1 * x) : 0);
-  }
-  return out;
+/**
+ * Bowing of 1/m (m0⁻¹) implied by a mass bowing C (m0) between end masses mP (first element) and
+ * mQ at fraction u of the first: with m(u) = u mP + (1−u) mQ − u(1−u) C and L′ = u mQ + (1−u) mP,
+ * 1/m(u) = u/mP + (1−u)/mQ − u(1−u) [(mP − mQ)² − C L′] / (m(u) mP mQ) (exact algebra; no 0/0
+ * at the ends).
+ */
+function inverseMassBowing(mP: number, mQ: number, C: number, u: number): number {
+  const m = u * mP + (1 - u) * mQ - u * (1 - u) * C;
+  return ((mP - mQ) ** 2 - C * (u * mQ + (1 - u) * mP)) / (m * mP * mQ);
 }
 
-const combine = (terms: readonly (readonly [number, Values])[], denominator: number): Values => {
-  const out = {} as Record<Field, number>;
-  for (const f of FIELDS) out[f] = terms.reduce((acc, [w, v]) => acc + w * v[f], 0) / denominator;
-  return out;
-};
-
-// Below this weight sum a quaternary sits on a corner; its bowed form is 0/0 there and its value
-// is the binary, which the bilinear or linear mix gives exactly.
-const CORNER = 1e-12;
-
-/**
- * A_x B_(1−x) C_y D_(1−y) (two on each side), VMR2001's quaternary interpolation (after
- * Glisson et al.): Q = [x(1−x){y T_ABC(x) + (1−y) T_ABD(x)} + y(1−y){x T_ACD(y) + (1−x) T_BCD(y)}]
- * / [x(1−x) + y(1−y)], with T the bowed ternaries.
- */
-function twoByTwo(alloy: Alloy, view: View): Values {
-  const [A, B] = Object.keys(alloy.III) as [string, string];
-  const [C, D] = Object.keys(alloy.V) as [string, string];
-  const x = alloy.III[A]!; const x1 = alloy.III[B]!;
-  const y = alloy.V[C]!; const y1 = alloy.V[D]!;
-  const den = x * x1 + y * y1;
-  if (den < CORNER) {
-    const b = (p: string, q: string): Values => view(binaryOf(p, q)!);
-    return combine([[x * y, b(A, C)], [x * y1, b(A, D)], [x1 * y, b(B, C)], [x1 * y1, b(B, D)]], x * y + x * y1 + x1 * y + x1 * y1);
-  }
-  const T = (p: string, q: string, common: string, fr: Readonly<Record<string, number>>): Values =>
-    ternaryValues(findTernary(p, q, common)!, fr, view);
-  return combine([
-    [x * x1 * y, T(A, B, C, alloy.III)],
-    [x * x1 * y1, T(A, B, D, alloy.III)],
-    [y * y1 * x, T(C, D, A, alloy.V)],
-    [y * y1 * x1, T(C, D, B, alloy.V)],
-  ], den);
+/** A ternary's bowings prepared once: each bowed field's (c0, c1), and for a hole-mass bowing the
+ * end binaries' [001] masses (m0) it needs. */
+interface Prepared {
+  readonly fields: readonly (readonly [Field, number, number])[];
+  readonly masses: { readonly hhP: number; readonly hhQ: number; readonly lhP: number; readonly lhQ: number; readonly bow: HoleMassBowing } | null;
+}
+const prepared = new Map<Ternary, Prepared>();
+function prepare(t: Ternary): Prepared {
+  let p = prepared.get(t);
+  if (p) return p;
+  const end = (el: string): BinaryParams => (t.side === 'III' ? binaryOf(el, t.common) : binaryOf(t.common, el))!;
+  const P = end(t.first);
+  const Q = end(t.second);
+  p = {
+    fields: (Object.keys(t.bow) as Field[]).map((f): readonly [Field, number, number] => [f, t.bow[f]!.c0, t.bow[f]!.c1]),
+    masses: t.holeMasses ? {
+      hhP: 1 / (P.gamma1 - 2 * P.gamma2), hhQ: 1 / (Q.gamma1 - 2 * Q.gamma2),
+      lhP: 1 / (P.gamma1 + 2 * P.gamma2), lhQ: 1 / (Q.gamma1 + 2 * Q.gamma2), bow: t.holeMasses,
+    } : null,
+  };
+  prepared.set(t, p);
+  return p;
 }
 
 /**
- * A_x B_y C_(1−x−y) D (three on one side), VMR2001's weighted-ternary scheme:
- * Q = [xy T_AB(u) + yz T_BC(v) + xz T_AC(w)] / (xy + yz + xz), z = 1 − x − y, where each ternary
- * is taken at the projection of the composition onto its edge: u = (1 + x − y)/2 of A in AB,
- * v = (1 + y − z)/2 of B in BC, w = (1 + x − z)/2 of A in AC.
+ * Subtracts w × every bowing of ternary t at fraction u of its first element from out. A hole-mass
+ * bowing enters as the Luttinger-parameter bowings that make the [001] masses m_hh = 1/(γ1 − 2γ2),
+ * m_lh = 1/(γ1 + 2γ2) follow VMR2001's bowed-mass form: γ1 = (1/m_hh + 1/m_lh)/2,
+ * γ2 = (1/m_lh − 1/m_hh)/4; γ3 keeps γ3 − γ2 (the valence-band warping) linear, so it bows as γ2.
  */
-function threeOnOne(mixed: Readonly<Record<string, number>>, common: string, side: 'III' | 'V', view: View): Values {
-  const [A, B, C] = Object.keys(mixed) as [string, string, string];
-  const x = mixed[A]!; const y = mixed[B]!; const z = mixed[C]!;
-  const den = x * y + y * z + x * z;
-  const bin = (el: string): Values => view((side === 'III' ? binaryOf(el, common) : binaryOf(common, el))!);
-  if (den < CORNER) return combine([[x, bin(A)], [y, bin(B)], [z, bin(C)]], x + y + z);
-  const edge = (p: string, q: string, fp: number): Values =>
-    ternaryValues(findTernary(p, q, common)!, { [p]: fp, [q]: 1 - fp }, view);
-  return combine([
-    [x * y, edge(A, B, (1 + x - y) / 2)],
-    [y * z, edge(B, C, (1 + y - z) / 2)],
-    [x * z, edge(A, C, (1 + x - z) / 2)],
-  ], den);
+function subtractBowings(out: Record<Field, number>, t: Ternary, u: number, w: number): void {
+  const p = prepare(t);
+  for (const [f, c0, c1] of p.fields) out[f] -= w * (c0 + c1 * u);
+  if (p.masses) {
+    const m = p.masses;
+    const hh = inverseMassBowing(m.hhP, m.hhQ, m.bow.mhh, u);
+    const lh = inverseMassBowing(m.lhP, m.lhQ, m.bow.mlh, u);
+    const g2 = (lh - hh) / 4;
+    out.gamma1 -= (w * (hh + lh)) / 2;
+    out.gamma2 -= w * g2;
+    out.gamma3 -= w * g2;
+  }
 }
 
-/** Interpolated values of any supported alloy under a view of its binaries. The alloy must have
- * passed supportIssue (validateAlloy / parseFormula guarantee it). */
+/**
+ * Interpolated values of any supported alloy under a view of its binaries, by the quadratic form
+ * P = Σ_ij x_i y_j P_ij − Σ_{i<i′} Σ_j x_i x_i′ y_j C_ii′j(u) − Σ_{j<j′} Σ_i y_j y_j′ x_i C_ijj′(u),
+ * x the group-III and y the group-V fractions, P_ij the binaries, C the ternary bowings. For a
+ * ternary it is VMR2001's x P_A + (1−x) P_B − x(1−x) C; for A_x B_(1−x) C_y D_(1−y) the form of
+ * R. L. Moon, G. A. Antypas, L. W. James, J. Electron. Mater. 3, 635 (1974) (from memory; the
+ * interpolation form is what Adachi's InGaAsP relation, S. Adachi, J. Appl. Phys. 53, 8775 (1982),
+ * expands to); for A_x B_y C_z D the sum of the three pair bowings. A bowing that depends on
+ * composition, C(u) = c0 + c1·u, is taken at u = (1 + x_i − x_i′)/2 of the pair's first element:
+ * the pair's own fraction on its edge, the projection of the composition onto the edge inside
+ * (the Redlich–Kister extension of a two-term bowing, common practice). Fractions with zero
+ * weight are skipped, so a zero-fraction end is exactly its binary or ternary.
+ * The alloy must have passed supportIssue (validateAlloy / parseFormula guarantee it).
+ */
 function interpolate(alloy: Alloy, view: View): Values {
-  const III = Object.keys(alloy.III);
-  const V = Object.keys(alloy.V);
-  if (III.length === 1 && V.length === 1) return view(binaryOf(III[0]!, V[0]!)!);
-  if (V.length === 1 && III.length === 2) return ternaryValues(findTernary(III[0]!, III[1]!, V[0]!)!, alloy.III, view);
-  if (III.length === 1 && V.length === 2) return ternaryValues(findTernary(V[0]!, V[1]!, III[0]!)!, alloy.V, view);
-  if (III.length === 2 && V.length === 2) return twoByTwo(alloy, view);
-  if (V.length === 1) return threeOnOne(alloy.III, V[0]!, 'III', view);
-  return threeOnOne(alloy.V, III[0]!, 'V', view);
+  const III = Object.entries(alloy.III);
+  const V = Object.entries(alloy.V);
+  const out = Object.fromEntries(FIELDS.map((f) => [f, 0])) as Record<Field, number>;
+  for (const [c3, x] of III) for (const [c5, y] of V) {
+    const w = x * y;
+    if (w === 0) continue;
+    const b = view(binaryOf(c3, c5)!);
+    for (const f of FIELDS) out[f] += w * b[f];
+  }
+  const bow = (mixed: readonly [string, number][], others: readonly [string, number][]): void => {
+    for (let i = 0; i < mixed.length; i++) for (let k = i + 1; k < mixed.length; k++) {
+      const [p, xp] = mixed[i]!;
+      const [q, xq] = mixed[k]!;
+      for (const [c, z] of others) {
+        const w = xp * xq * z;
+        if (w === 0) continue;
+        const t = findTernary(p, q, c)!;
+        subtractBowings(out, t, t.first === p ? (1 + xp - xq) / 2 : (1 + xq - xp) / 2, w);
+      }
+    }
+  };
+  bow(III, V);
+  bow(V, III);
+  return out;
 }
 
-const identity: View = (b) => b;
+/** Interpolated parameters of an alloy at 0 K (lattice constant at 300 K); nm, eV, m0, GPa. */
+export type AlloyParams = Values & { readonly name: string };
 
 /**
- * Interpolated parameter set of an alloy at 0 K (lattice constant at 300 K), by VMR2001's scheme:
- * bowed Γ/X/L gaps, Δso, electron mass, Ep, F, VBO and ac where the paper gives bowing; Vegard
- * (linear) lattice constant; Luttinger parameters, deformation potentials and elastic constants
- * linear. Varshni α, β here are linear mixes given for reference only: gaps at a temperature come
- * from alloyAt, which bows the binaries' gaps at that temperature.
+ * Interpolated parameter set of an alloy at 0 K (lattice constant at 300 K), by interpolate:
+ * bowed Γ/X/L gaps, Δso, electron mass, Ep, F, VBO and ac where VMR2001 gives bowing; GaInAs
+ * [001] hole masses bowed, with γ1, γ2, γ3 following from them; Vegard (linear) lattice constant;
+ * the remaining Luttinger parameters, deformation potentials and elastic constants linear.
+ * Gaps at a temperature come from alloyAt, which bows the binaries' gaps at that temperature.
  * Example: Al0.3Ga0.7As → EgG0 = 0.3·3.099 + 0.7·1.519 − 0.21·(−0.127 + 1.310·0.3) ≈ 1.937 eV.
  */
-export function alloyParams(alloy: Alloy): BinaryParams {
-  return Object.freeze({ name: formatFormula(alloy), ...interpolate(alloy, identity) });
+export function alloyParams(alloy: Alloy): AlloyParams {
+  return Object.freeze({ name: formatFormula(alloy), ...interpolate(alloy, (b) => b) });
 }
 
 /**
- * The view of the binaries at T: gaps by Varshni, lattice constant at T, the rest as tabulated.
- * Memoised per temperature, since a search resolves the same few binaries at one T thousands of
- * times; the table holds a handful of temperatures (a tolerance run adds ±ΔT) and is cleared past 64.
+ * The view of the binaries at T: gaps by each binary's tabulated law, lattice constant at T under
+ * the lattice model, the rest as tabulated. Memoised per (T, model), since a search resolves the
+ * same few binaries at one T thousands of times; the table holds a handful of temperatures (a
+ * tolerance run adds ±ΔT) and is cleared past 64.
  */
-const views = new Map<number, View>();
-function viewAt(T: number): View {
-  let view = views.get(T);
+const views = new Map<string, View>();
+function viewAt(T: number, lattice: LatticeModel): View {
+  const key = `${T}|${lattice}`;
+  let view = views.get(key);
   if (view) return view;
   const seen = new Map<BinaryParams, Values>();
   view = (p) => {
     let v = seen.get(p);
     if (!v) {
-      v = Object.freeze({
-        ...p,
-        a_nm: latticeAt(p, T),
-        EgG0: varshni(p.EgG0, p.alphaG, p.betaG, T),
-        EgX0: varshni(p.EgX0, p.alphaX, p.betaX, T),
-        EgL0: varshni(p.EgL0, p.alphaL, p.betaL, T),
-      });
+      const g = gapsAt(p, T);
+      v = Object.freeze({ ...p, a_nm: latticeAt(p, T, lattice), EgG0: g.EgG, EgX0: g.EgX, EgL0: g.EgL });
       seen.set(p, v);
     }
     return v;
   };
   if (views.size >= 64) views.clear();
-  views.set(T, view);
+  views.set(key, view);
   return view;
 }
 
@@ -152,12 +169,14 @@ export interface AlloyAtT {
 }
 
 /**
- * Alloy parameters at temperature T (K): each binary's Γ/X/L gap is taken at T by Varshni and its
- * lattice constant by a(T) = a(300 K) + da/dT (T − 300), then interpolated with the same
- * (temperature-independent) bowing as at 0 K. Example: In0.53Ga0.47As at 300 K → EgG ≈ 0.737 eV.
+ * Alloy parameters at temperature T (K): each binary's Γ/X/L gap is taken at T by its tabulated
+ * law (temperature.ts) and its lattice constant by the lattice model (default 'linear',
+ * a(300 K) + da/dT (T − 300)), then interpolated with the same (temperature-independent) bowing
+ * as at 0 K. me is the low-temperature mass (resolve.ts applies the electron-mass model).
+ * Example: In0.53Ga0.47As at 300 K → EgG ≈ 0.737 eV.
  */
-export function alloyAt(alloy: Alloy, T: number): AlloyAtT {
-  const v = interpolate(alloy, viewAt(T));
+export function alloyAt(alloy: Alloy, T: number, lattice: LatticeModel = 'linear'): AlloyAtT {
+  const v = interpolate(alloy, viewAt(T, lattice));
   return Object.freeze({
     temperature_K: T, a_nm: v.a_nm, EgG: v.EgG0, EgX: v.EgX0, EgL: v.EgL0,
     Dso: v.Dso, me: v.me, gamma1: v.gamma1, gamma2: v.gamma2, gamma3: v.gamma3,

@@ -4,9 +4,9 @@
 import { InputError } from '../engine/errors.js';
 import { alloyAt } from './alloys.js';
 import { formatFormula, validateAlloy, type Alloy } from './formula.js';
-import { holeMasses } from './masses.js';
+import { electronMassAtGap, holeMasses } from './masses.js';
 import { biaxialStrain, criticalThickness, edgeShifts } from './strain.js';
-import type { ResolvedMaterial } from './types.js';
+import type { ElectronMassModel, LatticeModel, MaterialModels, ResolvedMaterial } from './types.js';
 
 /** Below this |mismatch| a layer counts as lattice-matched: no critical thickness. */
 const MATCHED = 1e-6;
@@ -18,27 +18,55 @@ function checkTemperature(T: number): number {
   return T;
 }
 
+/** The model choices used when resolveMaterial is given none: today's behaviour. */
+export const DEFAULT_MODELS: MaterialModels = Object.freeze({ electronMass: 'low-temperature', lattice: 'linear' });
+
+const ELECTRON_MASS_MODELS: readonly ElectronMassModel[] = ['low-temperature', 'kane-temperature'];
+const LATTICE_MODELS: readonly LatticeModel[] = ['linear', 'held-below-100K'];
+
+function checkChoice<T extends string>(value: T | undefined, choices: readonly T[], fallback: T, field: string): T {
+  if (value === undefined) return fallback;
+  if (!choices.includes(value)) {
+    throw new InputError('bad-value', `${field}: must be one of ${choices.map((c) => `'${c}'`).join(', ')}, got ${JSON.stringify(value)}; pick one of them`);
+  }
+  return value;
+}
+
 /**
  * Resolves an alloy at a temperature, pseudomorphically strained on a (001) substrate (or
  * free-standing when substrate is null).
  *
- * Parameters: VMR2001 interpolation (alloys.ts) with gaps at T by Varshni; lattice constants of
- * layer and substrate both at T. Edges on the VMR2001 absolute scale: Ev = VBO (taken as
+ * Parameters: interpolation of the VMR2001 binaries and bowings (alloys.ts) with each binary's
+ * gaps at T by its tabulated law; lattice constants of layer and substrate both at T under
+ * models.lattice (temperature.ts). Edges on the VMR2001 absolute scale: Ev = VBO (taken as
  * temperature-independent, so the gap's change with T goes to Ec), Ec = VBO + EgΓ(T), then the
  * strain shifts of strain.ts (hydrostatic ac, av; shear b with the lh–so coupling).
- * Electron mass: VMR2001's low-temperature value at every T (its temperature dependence is a few
- * per cent up to 300 K and is not tabulated there). Hole masses from the Luttinger parameters
- * (masses.ts). Indirect valleys are reported unstrained. temperature_K in K; result in eV, nm, m0.
+ * Electron mass under models.electronMass: 'low-temperature' (default) is VMR2001's tabulated
+ * value at every T; 'kane-temperature' scales it by the Kane inverse mass at EgΓ(0)/EgΓ(T) of the
+ * unstrained alloy (masses.ts; GaAs 0.067 → 0.0622 at 300 K). Hole masses from the Luttinger
+ * parameters (masses.ts). Indirect valleys are reported unstrained. temperature_K in K; result in
+ * eV, nm, m0, with the model choices recorded in `models`.
  * Example: GaAs on GaAs at 300 K → EgStrained ≈ 1.4225 eV, monolayer_nm ≈ 0.28266 nm.
- * Throws InputError 'bad-value' for a negative or non-finite temperature, and 'bad-formula' /
- * 'unknown-material' for an invalid layer or substrate alloy.
+ * Throws InputError 'bad-value' for a negative or non-finite temperature or an unknown model
+ * choice, and 'bad-formula' / 'unknown-material' for an invalid layer or substrate alloy.
  */
-export function resolveMaterial(alloy: Alloy, opts: { readonly temperature_K: number; readonly substrate: Alloy | null }): ResolvedMaterial {
+export function resolveMaterial(
+  alloy: Alloy,
+  opts: {
+    readonly temperature_K: number;
+    readonly substrate: Alloy | null;
+    readonly models?: { readonly electronMass?: ElectronMassModel; readonly lattice?: LatticeModel };
+  },
+): ResolvedMaterial {
   const T = checkTemperature(opts.temperature_K);
+  const models: MaterialModels = Object.freeze({
+    electronMass: checkChoice(opts.models?.electronMass, ELECTRON_MASS_MODELS, DEFAULT_MODELS.electronMass, 'models.electronMass'),
+    lattice: checkChoice(opts.models?.lattice, LATTICE_MODELS, DEFAULT_MODELS.lattice, 'models.lattice'),
+  });
   validateAlloy(alloy, 'material');
   if (opts.substrate !== null) validateAlloy(opts.substrate, 'substrate');
-  const p = alloyAt(alloy, T);
-  const aSub = opts.substrate === null ? p.a_nm : alloyAt(opts.substrate, T).a_nm;
+  const p = alloyAt(alloy, T, models.lattice);
+  const aSub = opts.substrate === null ? p.a_nm : alloyAt(opts.substrate, T, models.lattice).a_nm;
   const strain = biaxialStrain(p.a_nm, aSub, p.C11, p.C12);
   const shifts = edgeShifts(p, strain);
   const mismatch = (p.a_nm - aSub) / aSub;
@@ -58,7 +86,7 @@ export function resolveMaterial(alloy: Alloy, opts: { readonly temperature_K: nu
     Dso: p.Dso,
     Ec, Ehh, Elh,
     EgStrained: Ec - Math.max(Ehh, Elh),
-    me: p.me,
+    me: models.electronMass === 'kane-temperature' ? electronMassAtGap(p.me, p, alloyAt(alloy, 0).EgG, p.EgG) : p.me,
     ...masses,
     strain_par: strain.par,
     strain_perp: strain.perp,
@@ -67,6 +95,7 @@ export function resolveMaterial(alloy: Alloy, opts: { readonly temperature_K: nu
     monolayer_nm: (p.a_nm * (1 + strain.perp)) / 2,
     indirect: lowestValley !== 'Γ',
     lowestValley,
+    models,
   });
 }
 
@@ -141,5 +170,6 @@ export function customMaterial(def: CustomMaterialDef): ResolvedMaterial {
     monolayer_nm: a / 2,
     indirect: false,
     lowestValley: 'Γ',
+    models: null,
   });
 }

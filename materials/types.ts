@@ -2,6 +2,18 @@
  * Shared shapes of the materials layer. Energies in eV, lengths in nm, masses in m0, T in K.
  */
 
+/**
+ * Temperature law of one gap, from its 0 K value E0 (eV), T in K:
+ * - 'varshni': E(T) = E0 − α T²/(T + β) (Y. P. Varshni, Physica 34, 149 (1967)); α in eV/K, β in K;
+ *   β = 0 is the linear law E0 − αT.
+ * - 'bose-einstein': E(T) = E0 + a [1 − coth(T1/T)], the Bose–Einstein form of L. Viña,
+ *   S. Logothetidis, M. Cardona, Phys. Rev. B 30, 1979 (1984) (from memory) written as VMR2001 gives
+ *   it for the GaP Γ gap; a in eV, T1 = Θ/2 in K (Θ the mean phonon temperature).
+ */
+export type GapLaw =
+  | { readonly kind: 'varshni'; readonly alpha_eV_per_K: number; readonly beta_K: number }
+  | { readonly kind: 'bose-einstein'; readonly a_eV: number; readonly T1_K: number };
+
 /** Parameters of one zinc-blende binary at 0 K, as tabulated by Vurgaftman, Meyer & Ram-Mohan,
  * J. Appl. Phys. 89, 5815 (2001) (hereafter VMR2001). */
 export interface BinaryParams {
@@ -9,13 +21,11 @@ export interface BinaryParams {
   /** Lattice constant at 300 K (Å in the paper; nm here) and its temperature coefficient (nm/K). */
   readonly a_nm: number;
   readonly da_dT_nm_per_K: number;
-  /** Γ, X, L gaps at 0 K (eV) and their Varshni α (eV/K), β (K). */
-  readonly EgG0: number; readonly alphaG: number; readonly betaG: number;
-  readonly EgX0: number; readonly alphaX: number; readonly betaX: number;
-  readonly EgL0: number; readonly alphaL: number; readonly betaL: number;
+  /** Γ, X, L gaps at 0 K (eV). */
+  readonly EgG0: number; readonly EgX0: number; readonly EgL0: number;
   /** Spin–orbit splitting (eV). */
   readonly Dso: number;
-  /** Γ-valley electron effective mass (m0). */
+  /** Γ-valley electron effective mass at low temperature (m0). */
   readonly me: number;
   /** Luttinger parameters. */
   readonly gamma1: number; readonly gamma2: number; readonly gamma3: number;
@@ -27,6 +37,21 @@ export interface BinaryParams {
   readonly ac: number; readonly av: number; readonly b: number;
   /** Elastic constants (GPa). */
   readonly C11: number; readonly C12: number;
+  /** Temperature laws of the Γ, X and L gaps, as the source gives them for this binary. */
+  readonly lawG: GapLaw; readonly lawX: GapLaw; readonly lawL: GapLaw;
+}
+
+/** How the electron mass depends on temperature: 'low-temperature' keeps the tabulated (0 K)
+ * mass at every T; 'kane-temperature' scales it by the Kane-model inverse mass at Eg(T) (masses.ts). */
+export type ElectronMassModel = 'low-temperature' | 'kane-temperature';
+/** How the lattice constant follows temperature: 'linear' is a(300 K) + da/dT (T − 300) at every
+ * T; 'held-below-100K' uses the same law above 100 K and holds a(100 K) below (temperature.ts). */
+export type LatticeModel = 'linear' | 'held-below-100K';
+
+/** The model choices a resolved material was computed with. */
+export interface MaterialModels {
+  readonly electronMass: ElectronMassModel;
+  readonly lattice: LatticeModel;
 }
 
 /** A material after alloying, temperature and strain: everything the profile builder needs. */
@@ -47,7 +72,7 @@ export interface ResolvedMaterial {
   readonly Elh: number;
   /** Strained Γ gap to the top valence edge: Ec − max(Ehh, Elh). */
   readonly EgStrained: number;
-  /** Electron Γ mass (m0), isotropic. */
+  /** Electron Γ mass (m0), isotropic, at temperature_K under models.electronMass. */
   readonly me: number;
   /** Hole masses along [001] (growth, z) and in-plane (axial approximation), m0. */
   readonly mhh_z: number; readonly mlh_z: number;
@@ -65,4 +90,6 @@ export interface ResolvedMaterial {
   readonly indirect: boolean;
   /** Which valley is lowest: 'Γ' | 'X' | 'L'. */
   readonly lowestValley: 'Γ' | 'X' | 'L';
+  /** Model choices that produced the values; null for a custom material (its values are given). */
+  readonly models: MaterialModels | null;
 }

@@ -5,8 +5,8 @@
  * materials/binaries.ts, so a typo in either shows. All are from memory: no public copy of the
  * tables was reachable (materials/SOURCES.md).
  */
-import { describe, it } from 'vitest';
-import { BINARIES, type BinaryName } from '../../materials/index.js';
+import { describe, expect, it } from 'vitest';
+import { BINARIES, type BinaryName, type BinaryParams } from '../../materials/index.js';
 import { expectClose } from './check.js';
 
 type Row = Readonly<Record<BinaryName, number>>;
@@ -15,6 +15,7 @@ const VMR2001: Readonly<Record<string, Row>> = {
   a_A:        { GaAs: 5.65325, AlAs: 5.6611, InAs: 6.0583, GaP: 5.4505, AlP: 5.4672, InP: 5.8697, GaSb: 6.0959, AlSb: 6.1355, InSb: 6.4794 },
   da_dT_A:    { GaAs: 3.88e-5, AlAs: 2.90e-5, InAs: 2.74e-5, GaP: 2.92e-5, AlP: 2.92e-5, InP: 2.79e-5, GaSb: 4.72e-5, AlSb: 2.60e-5, InSb: 3.48e-5 },
   EgG:        { GaAs: 1.519, AlAs: 3.099, InAs: 0.417, GaP: 2.886, AlP: 3.63, InP: 1.4236, GaSb: 0.812, AlSb: 2.386, InSb: 0.235 },
+  // GaP Γ: not Varshni but 2.886 + 0.1081[1 − coth(164/T)] eV; its row holds a = 0.1081 eV, T1 = 164 K.
   alphaG_meV: { GaAs: 0.5405, AlAs: 0.885, InAs: 0.276, GaP: 0.1081, AlP: 0.5771, InP: 0.363, GaSb: 0.417, AlSb: 0.42, InSb: 0.32 },
   betaG:      { GaAs: 204, AlAs: 530, InAs: 93, GaP: 164, AlP: 372, InP: 162, GaSb: 140, AlSb: 140, InSb: 170 },
   EgX:        { GaAs: 1.981, AlAs: 2.24, InAs: 1.433, GaP: 2.35, AlP: 2.52, InP: 2.384, GaSb: 1.141, AlSb: 1.696, InSb: 0.63 },
@@ -39,26 +40,45 @@ const VMR2001: Readonly<Record<string, Row>> = {
 };
 
 // Stored field and the factor from the paper's unit to the stored one.
-const STORED: Readonly<Record<string, readonly [keyof typeof BINARIES.GaAs, number]>> = {
+const STORED: Readonly<Record<string, readonly [keyof Omit<BinaryParams, 'name' | 'lawG' | 'lawX' | 'lawL'>, number]>> = {
   a_A: ['a_nm', 0.1], da_dT_A: ['da_dT_nm_per_K', 0.1],
-  EgG: ['EgG0', 1], alphaG_meV: ['alphaG', 1e-3], betaG: ['betaG', 1],
-  EgX: ['EgX0', 1], alphaX_meV: ['alphaX', 1e-3], betaX: ['betaX', 1],
-  EgL: ['EgL0', 1], alphaL_meV: ['alphaL', 1e-3], betaL: ['betaL', 1],
+  EgG: ['EgG0', 1], EgX: ['EgX0', 1], EgL: ['EgL0', 1],
   Dso: ['Dso', 1], me: ['me', 1], gamma1: ['gamma1', 1], gamma2: ['gamma2', 1], gamma3: ['gamma3', 1],
   Ep: ['Ep', 1], F: ['F', 1], VBO: ['VBO', 1], ac: ['ac', 1], av: ['av', 1], b: ['b', 1], C11: ['C11', 1], C12: ['C12', 1],
 };
+
+// Temperature-law rows: (first parameter, second parameter) of each gap's law.
+const LAWS: readonly (readonly [string, string, 'lawG' | 'lawX' | 'lawL'])[] = [
+  ['alphaG_meV', 'betaG', 'lawG'], ['alphaX_meV', 'betaX', 'lawX'], ['alphaL_meV', 'betaL', 'lawL'],
+];
+/** The one gap VMR2001 gives a Bose–Einstein law instead of Varshni's (from memory). */
+const BOSE_EINSTEIN: Readonly<Partial<Record<BinaryName, string>>> = { GaP: 'lawG' };
 
 describe('binary table against VMR2001 Tables I–IX (from memory)', () => {
   const names = Object.keys(BINARIES) as BinaryName[];
   it('holds exactly the nine zinc-blende binaries', () => {
     expectClose(names.length, 9, 0, 'number of binaries');
   });
+  const lawRows = new Set(LAWS.flatMap(([p, q]) => [p, q]));
   for (const [param, row] of Object.entries(VMR2001)) {
+    if (lawRows.has(param)) continue;
     it(`${param} of all nine binaries`, () => {
       const [field, factor] = STORED[param]!;
       for (const n of names) {
         const expected = row[n] * factor;
-        expectClose(BINARIES[n][field] as number, expected, 1e-12 * Math.max(1, Math.abs(expected)), `${n}.${param}`);
+        expectClose(BINARIES[n][field], expected, 1e-12 * Math.max(1, Math.abs(expected)), `${n}.${param}`);
+      }
+    });
+  }
+  for (const [first, second, lawField] of LAWS) {
+    it(`temperature law of ${lawField.slice(3)} (${first}, ${second}) of all nine binaries`, () => {
+      for (const n of names) {
+        const law = BINARIES[n][lawField];
+        const be = BOSE_EINSTEIN[n] === lawField;
+        expect(law.kind, `${n}.${lawField}.kind`).toBe(be ? 'bose-einstein' : 'varshni');
+        const [p, q] = law.kind === 'varshni' ? [law.alpha_eV_per_K * 1e3, law.beta_K] : [law.a_eV, law.T1_K];
+        expectClose(p, VMR2001[first]![n], 1e-12, `${n}.${first}`);
+        expectClose(q, VMR2001[second]![n], 1e-12, `${n}.${second}`);
       }
     });
   }
