@@ -7,8 +7,9 @@
 import { InputError } from './errors.js';
 import type { LayerSpec, Spec, VariableSpec } from './spec/schema.js';
 import { parseField, parseLength, parseTemperature, splitQuantity, parseEnergy, type Length } from './spec/units.js';
-import { alloyFromName, customMaterial, formatFormula, GROUP_III, GROUP_V, parseFormula, resolveMaterial, type Alloy } from '../materials/index.js';
-import type { ResolvedMaterial } from '../materials/types.js';
+import { alloyFromName, customMaterial, DEFAULT_MODELS, formatFormula, GROUP_III, GROUP_V, parseFormula, resolveMaterial, type Alloy } from '../materials/index.js';
+import type { MaterialModels, ResolvedMaterial } from '../materials/types.js';
+import { nonparabolicity, type NonparabolicityModel } from '../materials/nonparabolicity.js';
 import { staticPermittivity } from '../materials/dielectric.js';
 import { edgesOf, interfaceOffsets, shareEdges, type InterfaceOffset, type OffsetRule, type ShareGap } from './lineup.js';
 
@@ -60,6 +61,8 @@ export interface Structure {
   readonly temperature_K: number;
   readonly field_kV_per_cm: number;
   readonly offsetRule: OffsetRule;
+  /** Material-model choices (non-parabolicity form, electron mass at temperature, lattice law). */
+  readonly models: StructureModels;
   readonly layers: readonly ResolvedLayer[];
   /** Strained band steps at every heterointerface, with the conduction share of the gap step. */
   readonly interfaces: readonly InterfaceOffset[];
@@ -238,6 +241,7 @@ function num(raw: string | number | undefined, parse: (x: string | number) => nu
 
 /** Resolves a material (alloy or custom) at the spec's temperature, strained on the substrate. */
 export function resolveComposition(spec: Spec, alloyOrCustom: Alloy | string, temperature_K: number, substrate: Alloy | null, field: string): ResolvedMaterial {
+  const models = modelsOf(spec);
   if (typeof alloyOrCustom === 'string') {
     const def = spec.materials![alloyOrCustom]!;
     const f = `materials.${alloyOrCustom}`;
@@ -254,7 +258,35 @@ export function resolveComposition(spec: Spec, alloyOrCustom: Alloy | string, te
       ...(lattice ? { a_nm: lattice.nm } : {}),
     }));
   }
-  return withField(field, () => resolveMaterial(alloyOrCustom, { temperature_K, substrate }));
+  return withField(field, () => resolveMaterial(alloyOrCustom, { temperature_K, substrate, models }));
+}
+
+/** The model choices a structure is built with; recorded in every output. */
+export interface StructureModels extends MaterialModels {
+  /** Form of the electron non-parabolicity α (materials/nonparabolicity.ts); whether it is applied is solver.nonparabolic. */
+  readonly nonparabolicity: NonparabolicityModel;
+}
+
+/**
+ * Defaults: the two-band α = 1/Eg, the form most published intersubband designs use (the
+ * three-band form with the split-off band and the free-electron term lowers α by 15–20 % in GaAs);
+ * the low-temperature electron mass and the linear lattice law, as the parameter set tabulates them.
+ */
+export const DEFAULT_STRUCTURE_MODELS: StructureModels = Object.freeze({ ...DEFAULT_MODELS, nonparabolicity: 'two-band' });
+
+/** One line naming the model choices, for tables and reports. */
+export const describeModels = (m: StructureModels): string =>
+  `electron non-parabolicity ${m.nonparabolicity} (when solver.nonparabolic is on), electron mass ${m.electronMass}, lattice ${m.lattice}`;
+
+/** A spec's model choices (solver section) over the defaults. */
+export function modelsOf(spec: Spec): StructureModels {
+  const s = spec.solver;
+  if (s?.nonparabolicity === undefined && s?.electron_mass === undefined && s?.lattice === undefined) return DEFAULT_STRUCTURE_MODELS;
+  return {
+    nonparabolicity: s.nonparabolicity ?? DEFAULT_STRUCTURE_MODELS.nonparabolicity,
+    electronMass: s.electron_mass ?? DEFAULT_STRUCTURE_MODELS.electronMass,
+    lattice: s.lattice ?? DEFAULT_STRUCTURE_MODELS.lattice,
+  };
 }
 
 /**
@@ -392,6 +424,7 @@ export function buildStructure(spec: Spec, values: Readonly<Record<string, numbe
   const field_kV_per_cm = num(spec.field, parseField, 'field', 0);
   if (!(Math.abs(field_kV_per_cm) <= MAX_FIELD_KV_PER_CM)) throw new InputError('bad-value', `field: ${spec.field} is beyond ±${MAX_FIELD_KV_PER_CM} kV/cm, above the breakdown field of these materials; give a field below it`, 'field');
   const { substrate, reference, offsetRule } = memo(cache.settings, String(temperature_K), () => settingOf(spec, temperature_K));
+  const models = modelsOf(spec);
   const ctx: Context = { spec, vars, values, temperature_K, substrate };
 
   const bandsOf = (source: Alloy | string, field: string): { bands: LayerBands; material: ResolvedMaterial } => {
@@ -403,7 +436,9 @@ export function buildStructure(spec: Spec, values: Readonly<Record<string, numbe
     }
     const gap = Ec - Math.max(Ehh, Elh);
     const custom = typeof source === 'string' ? spec.materials![source]!.nonparabolicity : undefined;
-    const alpha = custom !== undefined ? num(custom, (x) => { const q = splitQuantity(x); return q ? q.value : `expected a number in 1/eV, got ${JSON.stringify(x)}`; }, `materials.${source as string}.nonparabolicity`, 0) : gap > 0 ? 1 / gap : 0;
+    // A closed or inverted gap has no Kane non-parabolicity of this form: the band is taken parabolic there.
+    const alpha = custom !== undefined ? num(custom, (x) => { const q = splitQuantity(x); return q ? q.value : `expected a number in 1/eV, got ${JSON.stringify(x)}`; }, `materials.${source as string}.nonparabolicity`, 0)
+      : gap > 0 ? (typeof source === 'string' ? 1 / gap : nonparabolicity(models.nonparabolicity, { Eg: gap, Dso: m.Dso, me: m.me })) : 0;
     return { material: m, bands: { Ec, Ehh, Elh, me: m.me, mhh_z: m.mhh_z, mlh_z: m.mlh_z, mhh_par: m.mhh_par, mlh_par: m.mlh_par, alpha } };
   };
 
@@ -475,6 +510,7 @@ export function buildStructure(spec: Spec, values: Readonly<Record<string, numbe
     temperature_K,
     field_kV_per_cm,
     offsetRule,
+    models,
     layers,
     interfaces: interfaceOffsets(layers.map((l) => ({ index: l.index, label: l.label, formula: l.formula, first: l.bands[0]!, last: l.bands[l.bands.length - 1]! }))),
     variables: { ...values },

@@ -1,7 +1,7 @@
 /** `wellsmith solve SPEC`: states, transitions and 2-D DOS steps of a fixed structure. */
 import { loadSpecFile } from '../spec/load.js';
 import { solve, BANDS, type SolveResult } from '../solve.js';
-import type { Structure } from '../structure.js';
+import { describeModels, type Structure } from '../structure.js';
 import { describeOffsetRule, type InterfaceOffset } from '../lineup.js';
 import { EXIT, failure, success, type Outcome } from './exit.js';
 import { fixed, sig, table, toJson } from './format.js';
@@ -21,7 +21,7 @@ export function solveJson(r: SolveResult, withWavefunctions: boolean): unknown {
 }
 
 export function describeStructure(s: Structure): string {
-  const head = `T = ${s.temperature_K} K · substrate ${s.substrate ?? 'none (unstrained)'} · field ${s.field_kV_per_cm} kV/cm\noffsets: ${describeOffsetRule(s.offsetRule)}`;
+  const head = `T = ${s.temperature_K} K · substrate ${s.substrate ?? 'none (unstrained)'} · field ${s.field_kV_per_cm} kV/cm\noffsets: ${describeOffsetRule(s.offsetRule)}\nmodels: ${describeModels(s.models)}`;
   const rows = s.layers.map((l) => {
     const b = l.bands[Math.floor(l.bands.length / 2)]!;
     return [String(l.index + 1), l.label, l.formula, fixed(l.thickness_nm, 3), fixed(l.monolayers, 2), fixed(b.Ec, 4), fixed(b.Ehh, 4), fixed(b.Elh, 4),

@@ -6,6 +6,7 @@
 import { BANDS, type SolveResult } from '../solve.js';
 import { fixed, sig } from '../cli/format.js';
 import { describeOffsetRule } from '../lineup.js';
+import { describeModels } from '../structure.js';
 import { INTERFACE_HEADER, interfaceRow } from '../cli/solve.js';
 import type { Scored } from '../../objectives/index.js';
 import type { Evaluation } from '../../objectives/types.js';
@@ -30,7 +31,7 @@ export function structureSection(r: SolveResult, id = 'structure'): Section {
   const interfaces = s.interfaces.length === 0 ? '' : `\n<h3>Interfaces</h3>\n<p>Steps of the strained edges, upper layer minus lower (meV); Qc = ΔEc/ΔEg of the strained gaps, the share measured offsets quote; type I when the hole band is higher on the side the electrons prefer.</p>\n${htmlTable(INTERFACE_HEADER, s.interfaces.map(interfaceRow), [1, 2, 3, 4, 5])}`;
   return {
     id, title: 'Layer stack',
-    lead: `T = ${s.temperature_K} K · substrate ${s.substrate ?? 'none (unstrained)'} · field ${s.field_kV_per_cm} kV/cm · offsets: ${describeOffsetRule(s.offsetRule)} · parameters: ${r.parameterSet}. Band edges at each layer's centre.`,
+    lead: `T = ${s.temperature_K} K · substrate ${s.substrate ?? 'none (unstrained)'} · field ${s.field_kV_per_cm} kV/cm · offsets: ${describeOffsetRule(s.offsetRule)} · models: ${describeModels(s.models)} · parameters: ${r.parameterSet}. Band edges at each layer's centre.`,
     html: `${htmlTable(['#', 'layer', 'material', 'thickness (nm)', 'ML', 'Ec (eV)', 'Ehh (eV)', 'Elh (eV)', 'ε∥ (%)'], rows, [0, 3, 4, 5, 6, 7, 8])}${interfaces}`,
   };
 }

@@ -62,6 +62,9 @@ export const solverSchema = z
     nonparabolic: z.boolean().optional().describe('Energy-dependent electron mass (two-band); default true'),
     slice: quantity.optional().describe('Slice width for graded layers and fields; default 0.2 nm, Richardson-extrapolated'),
     max_states: z.number().int().positive().optional().describe('At most this many states per band; default all bound states'),
+    nonparabolicity: z.enum(['two-band', 'three-band']).optional().describe('Form of the electron non-parabolicity α: two-band 1/Eg (default) or three-band Kane with the split-off band and the free-electron term'),
+    electron_mass: z.enum(['low-temperature', 'kane-temperature']).optional().describe('Electron mass: the tabulated low-temperature value at every T (default), or scaled to T by the Kane inverse mass at Eg(T)'),
+    lattice: z.enum(['linear', 'held-below-100K']).optional().describe('Lattice constant versus T: the tabulated linear law at every T (default), or held at its 100 K value below 100 K'),
   })
   .strict();
 
