@@ -31,6 +31,10 @@ export function wireFromJson(v: Record<string, unknown>, origin: string): WireSo
   if (!isRecord(v.maps) || !isRecord(v.dos) || !isRecord(v.dos.curves)) {
     throw new InputError('schema', `${origin}: a wire result needs its |ψ|² maps and DOS curves; write it with "wellsmith solve SPEC --json --maps"`, 'maps');
   }
+  const bands = v.bands as Record<string, unknown>;
+  if (!BANDS.every((b) => isRecord(bands[b]) && isRecord(bands[b].threshold))) {
+    throw new InputError('schema', `${origin}: a wire result without continuum thresholds (written by an older version); write it again with "wellsmith solve SPEC --json --maps"`, 'bands');
+  }
   return v as unknown as WireSolveResult;
 }
 
@@ -136,7 +140,12 @@ export function wireDosSpec(r: WireSolveResult): TopLevelSpec {
 export async function wireSections(r: WireSolveResult): Promise<Section[]> {
   const s = r.structure;
   const dims = Object.entries(s.dimensions).map(([k, v]) => `${k.replace(/^wire\.shape\./, '')} ${fixed(v, 2)} nm`).join(', ');
-  const states = BANDS.flatMap((b) => r.bands[b].states.map((x) => [BAND_NAMES[b], x.label, fixed(x.energy_eV, 5), fixed(x.confinement_meV, 2), fixed(x.mass_axis, 4)]));
+  const states = BANDS.flatMap((b) => r.bands[b].states.map((x) => [BAND_NAMES[b], x.label, fixed(x.energy_eV, 5), fixed(x.confinement_meV, 2), fixed(x.binding_meV, 2), fixed(x.mass_axis, 4)]));
+  const thresholds = BANDS.map((b) => {
+    const t = r.bands[b].threshold;
+    return `${BAND_NAMES[b]} ${fixed(t.energy_eV, 5)} eV (${t.source === 'barrier' ? 'barrier edge' : `parent well ${t.field.replace(/^wire\.shape\./, '')}`})`;
+  }).join(', ');
+  const parent = BANDS.flatMap((b) => r.bands[b].parentWellStates.map((x) => [BAND_NAMES[b], x.label, fixed(x.energy_eV, 5), fixed(x.binding_meV, 2), x.where.replace(/^wire\.shape\./, ''), fixed(x.share, 2)]));
   return [
     {
       id: 'cross-section', title: 'Cross-section',
@@ -148,7 +157,12 @@ export async function wireSections(r: WireSolveResult): Promise<Section[]> {
       lead: r.status === 'ok' ? `The lowest ${MAPPED_STATES} subbands of each band, each normalised to its peak.` : `status ${r.status}: ${r.message}`,
       html: figureHtml(await renderSvg(stateMapsSpec(r)), '|ψ|² / max|ψ|² over the cross-section (x and z in nm); subband edge energies in the panel titles.'),
     },
-    { id: 'states', title: 'Subbands', html: htmlTable(['band', 'state', 'edge (eV)', 'confinement (meV)', 'm along axis (m0)'], states, [2, 3, 4]) },
+    {
+      id: 'states', title: 'Subbands',
+      lead: `Wire subbands are the states bound below the continuum threshold of their band: ${thresholds}. A parent well is a drawn arm, stem or rectangle extended without end; its 1-D level, solved exactly, is where its 2-D continuum starts.`,
+      html: htmlTable(['band', 'state', 'edge (eV)', 'confinement (meV)', 'binding (meV)', 'm along axis (m0)'], states, [2, 3, 4, 5])
+        + (parent.length > 0 ? htmlTable(['band', 'parent-well state', 'energy (eV)', 'below threshold (meV)', 'mostly in', 'share'], parent, [2, 3, 5]) : ''),
+    },
     {
       id: 'transitions', title: 'Transitions',
       lead: `Interband transitions with envelope overlap² ≥ ${MIN_OVERLAP2} and every intersubband one${r.transitions.some((t) => t.kind === 'interband' && !(t.overlap2 >= MIN_OVERLAP2)) ? ' (weaker pairs left out; "wellsmith solve --json" lists all)' : ''}.`,

@@ -19,6 +19,8 @@ export interface LobpcgResult {
   readonly vectors: readonly Float64Array[];
   readonly iterations: number;
   readonly converged: boolean;
+  /** The guard vectors of the block after the last step (not converged; a warm start for a nearby operator). */
+  readonly guards: readonly Float64Array[];
 }
 
 export interface LobpcgProblem {
@@ -408,5 +410,6 @@ export function lobpcg(problem: LobpcgProblem): LobpcgResult {
     vectors: cur.v.slice(0, count).map((v) => Float64Array.from(v)),
     iterations,
     converged,
+    guards: cur.v.slice(count, nb).map((v) => Float64Array.from(v)),
   };
 }

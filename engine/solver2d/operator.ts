@@ -19,29 +19,52 @@ export interface Stencil9 {
 }
 
 /**
- * The 5-point finite-difference form of −(ħ²/2m0) ∇·(1/m ∇ψ) + (V − shift) ψ (eV).
- *
- * The flux between neighbouring nodes uses 1/m_edge = 2/(m_a + m_b), the harmonic mean of 1/m
- * (the inverse of the arithmetic mean of the masses). Why: for a sharp interface midway between
- * the nodes, continuity of ψ and of ψ′/m makes the jump ψ_b − ψ_a = (h/2)(m_a + m_b)·(ψ′/m), so
- * this is the exact flux of the piecewise-linear solution and the scheme stays second order; the
- * arithmetic mean of 1/m would be first order at such an interface. The wall coupling uses the
- * node's own mass. The result is symmetric and, with shift ≤ min V, positive definite.
- * Units: grid in nm, eV, m0; shift in eV.
+ * Masses along x and y at each node at energy E (m0): m·(1 + α(E − V)) with the grid's
+ * non-parabolicity, the band-edge masses when `energy` is undefined or the grid is parabolic.
  */
-export function buildOperator(grid: CrossSectionGrid, shift: number): Stencil9 {
-  const { nx, ny, mass, V } = grid;
+export function massesAt(grid: CrossSectionGrid, energy?: number): { readonly x: Float64Array; readonly y: Float64Array } {
+  const { mass, V, alpha } = grid;
+  const massY = grid.massY ?? mass;
+  if (alpha === undefined || energy === undefined) return { x: mass, y: massY };
+  const x = new Float64Array(mass.length);
+  const y = grid.massY === undefined ? x : new Float64Array(mass.length);
+  for (let k = 0; k < mass.length; k++) {
+    const f = 1 + alpha[k] * (energy - V[k]);
+    x[k] = mass[k] * f;
+    if (y !== x) y[k] = massY[k] * f;
+  }
+  return { x, y };
+}
+
+/**
+ * The 5-point finite-difference form of −(ħ²/2m0) ∇·(M⁻¹ ∇ψ) + (V − shift) ψ (eV), with the
+ * diagonal mass tensor M = diag(m_x, m_y) of each node taken at `energy` (see massesAt).
+ *
+ * The flux between neighbouring nodes along x uses 1/m_edge = 2/(m_x,a + m_x,b), the harmonic
+ * mean of 1/m_x (the inverse of the arithmetic mean of the masses), and likewise along y with
+ * m_y. Why: for a sharp interface midway between the nodes, continuity of ψ and of the normal
+ * flux ψ′/m makes the jump ψ_b − ψ_a = (h/2)(m_a + m_b)·(ψ′/m), so this is the exact flux of the
+ * piecewise-linear solution and the scheme stays second order; the arithmetic mean of 1/m would
+ * be first order at such an interface. A diagonal tensor only couples x-differences to m_x and
+ * y-differences to m_y, so each face keeps this one-dimensional argument. The wall coupling uses
+ * the node's own mass. The result is symmetric and, with shift ≤ min V, positive definite.
+ * Units: grid in nm, eV, m0; shift and energy in eV.
+ */
+export function buildOperator(grid: CrossSectionGrid, shift: number, energy?: number): Stencil9 {
+  const { nx, ny, V } = grid;
+  const { x: mx, y: my } = massesAt(grid, energy);
   const cx = HBAR2_OVER_2M0 / (grid.dx_nm * grid.dx_nm);
   const cy = HBAR2_OVER_2M0 / (grid.dy_nm * grid.dy_nm);
   const coef = new Float64Array(9 * nx * ny);
   for (let j = 0; j < ny; j++) {
     for (let i = 0; i < nx; i++) {
       const k = i + nx * j;
-      const m = mass[k];
-      const west = i > 0 ? (2 * cx) / (m + mass[k - 1]) : cx / m;
-      const east = i < nx - 1 ? (2 * cx) / (m + mass[k + 1]) : cx / m;
-      const south = j > 0 ? (2 * cy) / (m + mass[k - nx]) : cy / m;
-      const north = j < ny - 1 ? (2 * cy) / (m + mass[k + nx]) : cy / m;
+      const a = mx[k];
+      const b = my[k];
+      const west = i > 0 ? (2 * cx) / (a + mx[k - 1]) : cx / a;
+      const east = i < nx - 1 ? (2 * cx) / (a + mx[k + 1]) : cx / a;
+      const south = j > 0 ? (2 * cy) / (b + my[k - nx]) : cy / b;
+      const north = j < ny - 1 ? (2 * cy) / (b + my[k + nx]) : cy / b;
       const c = 9 * k;
       if (i > 0) coef[c + 3] = -west;
       if (i < nx - 1) coef[c + 5] = -east;
@@ -51,6 +74,50 @@ export function buildOperator(grid: CrossSectionGrid, shift: number): Stencil9 {
     }
   }
   return { nx, ny, coef, fivePoint: true };
+}
+
+/**
+ * uᵀH(E)u of the operator of buildOperator (shift 0) and its derivative in E, in one pass over
+ * the faces: Σ_faces w(E)(u_a − u_b)² + Σ_walls w(E) u² + Σ V u² with w = 2c/(m_a(E) + m_b(E)),
+ * dw/dE = −2c(m_a α_a + m_b α_b)/(m_a(E) + m_b(E))² (m the band-edge masses). The derivative is
+ * ≤ 0 for α ≥ 0: heavier masses at higher energy lower the kinetic term. Units: eV, eV/eV.
+ */
+export function energyForm(grid: CrossSectionGrid, u: Float64Array, energy: number): { readonly value: number; readonly slope: number } {
+  const { nx, ny, V, mass } = grid;
+  const massY = grid.massY ?? mass;
+  const alpha = grid.alpha;
+  const cx = HBAR2_OVER_2M0 / (grid.dx_nm * grid.dx_nm);
+  const cy = HBAR2_OVER_2M0 / (grid.dy_nm * grid.dy_nm);
+  let value = 0;
+  let slope = 0;
+  // One face (or a wall when b < 0) of coupling c between nodes a and b, masses from `m`.
+  const face = (m: Float64Array, c: number, a: number, b: number): void => {
+    const fa = alpha === undefined ? 1 : 1 + alpha[a] * (energy - V[a]);
+    const da = alpha === undefined ? 0 : m[a] * alpha[a];
+    if (b < 0) {
+      const ma = m[a] * fa;
+      value += (c / ma) * u[a] * u[a];
+      slope -= ((c * da) / (ma * ma)) * u[a] * u[a];
+      return;
+    }
+    const fb = alpha === undefined ? 1 : 1 + alpha[b] * (energy - V[b]);
+    const db = alpha === undefined ? 0 : m[b] * alpha[b];
+    const sum = m[a] * fa + m[b] * fb;
+    const d = u[a] - u[b];
+    value += ((2 * c) / sum) * d * d;
+    slope -= ((2 * c * (da + db)) / (sum * sum)) * d * d;
+  };
+  for (let j = 0; j < ny; j++) {
+    for (let i = 0; i < nx; i++) {
+      const k = i + nx * j;
+      value += V[k] * u[k] * u[k];
+      face(mass, cx, k, i > 0 ? k - 1 : -1);
+      if (i === nx - 1) face(mass, cx, k, -1);
+      face(massY, cy, k, j > 0 ? k - nx : -1);
+      if (j === ny - 1) face(massY, cy, k, -1);
+    }
+  }
+  return { value, slope };
 }
 
 /** (A x)_k at node k = i + nx·j, skipping neighbours outside the grid. */

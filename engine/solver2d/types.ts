@@ -16,8 +16,18 @@ export interface CrossSectionGrid {
   readonly y0_nm: number;
   /** Particle-sense potential at the nodes (eV), index i + nx·j. */
   readonly V: Float64Array;
-  /** Effective mass at the nodes (m0), index i + nx·j. */
+  /**
+   * Effective mass at the nodes (m0), index i + nx·j: along x, and along y too unless `massY` is
+   * given. With `alpha` it is the mass at the node's band edge (E = V).
+   */
   readonly mass: Float64Array;
+  /** Mass along y (m0) where it differs from the mass along x: a diagonal mass tensor (anisotropic hole masses). */
+  readonly massY?: Float64Array;
+  /**
+   * Non-parabolicity α (1/eV) at the nodes: both masses become m(E) = m·(1 + α(E − V)) (two-band
+   * form, as in engine/solver1d.ts) and each state's energy solves E = λ(H(E)). Absent: parabolic.
+   */
+  readonly alpha?: Float64Array;
 }
 
 /** Bound states of the cross-section, lowest first. */
@@ -26,7 +36,7 @@ export interface WireStates {
   readonly energies: readonly number[];
   /** Envelopes at the nodes (1/nm), index i + nx·j, normalised Σ|ψ|² dx dy = 1. */
   readonly psi: readonly Float64Array[];
-  /** Eigen-solver iterations spent (summed over grids where several are solved). */
+  /** Eigen-solver iterations spent (summed over grids, and over the re-solves of a non-parabolic band). */
   readonly iterations: number;
   /** Interior nodes [nx, ny] of the grid the states belong to. */
   readonly gridSize: readonly [number, number];

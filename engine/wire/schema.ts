@@ -44,6 +44,7 @@ const part = z
     y: length.describe('Bottom edge'),
     width: length,
     height: length,
+    continues: z.boolean().optional().describe('True when this rectangle is a quantum well that continues beyond the drawing along its longer side (an arm cut off by the cross-section, as in T-wires): its 2-D continuum then bounds the wire subbands. Default false: the rectangle ends where it is drawn'),
   })
   .strict();
 

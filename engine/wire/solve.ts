@@ -1,20 +1,26 @@
 /**
- * The forward model of a quantum wire: WireStructure -> per band a cross-section grid -> bound
- * subbands (engine/solver2d.ts, Richardson-extrapolated) -> transitions with 2-D overlaps, the
- * 1-D density of states and |ψ|² maps. The result has the shape of a well's SolveResult where
- * the two mean the same (bands[…].states[] with label, energy_eV, confinement_meV, bound;
- * barrier_eV; transitions[]; structure.temperature_K), so objectives that read only those work
- * on wires too.
+ * The forward model of a quantum wire: WireStructure -> per band a cross-section grid -> states
+ * (engine/solver2d.ts, Richardson-extrapolated) -> the continuum threshold (the barrier edge, or
+ * the lowest level of the parent wells, solved exactly in 1-D) -> wire subbands (the states bound
+ * below it) -> transitions with 2-D overlaps, the 1-D density of states and |ψ|² maps. The result
+ * has the shape of a well's SolveResult where the two mean the same (bands[…].states[] with
+ * label, energy_eV, confinement_meV, bound; barrier_eV, the continuum edge; transitions[];
+ * structure.temperature_K), so objectives that read only those work on wires too, and they see
+ * wire subbands only.
+ *
+ * Axes: the cross-section is (x, y) with y the growth axis [001] (the report draws it as z) and
+ * x the in-plane direction across the wire; the wire axis is the other in-plane direction.
  */
 import { HC_EV_NM, wavenumberPerCm } from '../constants.js';
 import { InputError } from '../errors.js';
-import type { BandName } from '../profile.js';
+import type { BandName, BandProfile } from '../profile.js';
+import { solveBand } from '../solver1d.js';
 import type { Spec } from '../spec/schema.js';
 import type { TransitionResult } from '../solve.js';
 import { nominalVariables, PARAMETER_SET } from '../structure.js';
 import { sampleCrossSection, solveCrossSectionConverged, type CrossSectionBox, type CrossSectionMaterial } from '../solver2d.js';
 import { dos1d } from '../observables/dos.js';
-import { buildWireStructure, materialAt, type WireMaterial, type WireSettings, type WireStructure } from './structure.js';
+import { buildWireStructure, materialAt, type ParentWell, type WireMaterial, type WireSettings, type WireStructure } from './structure.js';
 import { commonGrid, overlap2d, type MapGrid } from './grid.js';
 
 const BANDS: readonly BandName[] = ['electron', 'heavy_hole', 'light_hole'];
@@ -27,18 +33,67 @@ export interface WireStateResult {
   readonly energy_eV: number;
   /** Edge above (electrons) or below (holes) the band's extremum in the cross-section (meV). */
   readonly confinement_meV: number;
-  /** Always true: only states below the barrier's band edge are reported. */
+  /** Always true: only states bound below the continuum threshold are wire subbands. */
   readonly bound: boolean;
-  /** Probability-weighted mass along the wire axis, (∫|ψ|²/m dx dy)⁻¹ (m0): the mass of the 1-D dispersion. */
+  /** Depth below the continuum threshold (band's barrier_eV), into the gap (meV): positive for a wire subband. */
+  readonly binding_meV: number;
+  /**
+   * Probability-weighted mass along the wire axis at the subband edge, (∫|ψ|²/m(E) dx dy)⁻¹ (m0),
+   * with the two-band m(E) = m(1 + α(E − V)) for a non-parabolic band: the mass of the 1-D dispersion.
+   */
   readonly mass_axis: number;
+}
+
+/**
+ * A state of the cross-section at or above the continuum threshold but below the barrier edge:
+ * a state of the drawn parent wells (their 2-D continuum cut off by the drawing), not a wire
+ * subband. Its energy moves with the drawn lengths; targets never read it.
+ */
+export interface ParentWellState {
+  /** "pw:e1", "pw:hh2"…: numbered within the band, never a subband label. */
+  readonly label: string;
+  readonly energy_eV: number;
+  /** Negative or below the error estimate: how far it lies below the threshold (meV). */
+  readonly binding_meV: number;
+  /** Spec field of the part holding most of |ψ|² ("wire.shape.arm", "wire.barrier"…) and that share. */
+  readonly where: string;
+  readonly share: number;
+}
+
+/** The 1-D ground level of a parent well, in the same model as the cross-section. */
+export interface ParentWellLevel {
+  readonly field: string;
+  readonly formula: string;
+  readonly thickness_nm: number;
+  readonly across: 'x' | 'y';
+  /** Mass across the well (m0) at the band edge. */
+  readonly mass: number;
+  /** Lowest level (eV, absolute), or null when the part binds no state of this band. */
+  readonly ground_eV: number | null;
+}
+
+/** Where a band's continuum starts: the wire subbands lie below it. */
+export interface WireThreshold {
+  /** The threshold (eV, absolute): equal to the band's barrier_eV. */
+  readonly energy_eV: number;
+  /** 'barrier': the barrier material's edge (rectangle, circle, or no parent well binds); 'parent-well': the lowest parent-well level. */
+  readonly source: 'barrier' | 'parent-well';
+  /** The parent well setting it (its field), or "wire.barrier". */
+  readonly field: string;
+  /** Band edge of the barrier material (eV, absolute). */
+  readonly barrierEdge_eV: number;
+  readonly parentWells: readonly ParentWellLevel[];
 }
 
 export interface WireBandResult {
   readonly states: readonly WireStateResult[];
   /** Band extremum in the cross-section (eV, absolute). */
   readonly edge_eV: number;
-  /** Band edge of the barrier material: the continuum edge (eV, absolute). */
+  /** The continuum edge (eV, absolute): the threshold, i.e. the lowest parent-well level or the barrier material's edge. */
   readonly barrier_eV: number;
+  readonly threshold: WireThreshold;
+  /** States between the threshold and the barrier edge: states of the parent wells, not subbands. */
+  readonly parentWellStates: readonly ParentWellState[];
   /** Eigen-solver iterations over all grids. */
   readonly evaluations: number;
   /** Estimated error of the extrapolated edges (meV) and whether Richardson extrapolation was clean. */
@@ -66,7 +121,7 @@ export interface WireDos {
   readonly unit: string;
   readonly broadening_eV: number;
   readonly bands: Readonly<Record<BandName, readonly WireDosSubband[]>>;
-  /** Lorentzian-broadened g1 sampled from below the first edge to the barrier edge; energies absolute (eV). */
+  /** Lorentzian-broadened g1 of the subbands sampled from below the first edge to the continuum threshold; energies absolute (eV). */
   readonly curves: Readonly<Record<BandName, { readonly energies_eV: readonly number[]; readonly states_per_cm_per_eV: readonly number[] }>>;
 }
 
@@ -83,27 +138,94 @@ export interface WireSolveResult {
   readonly maps: { readonly grid: MapGrid; readonly psi2: Readonly<Record<BandName, readonly Float64Array[]>> };
 }
 
+/** Particle-sense potential (eV), masses along x, y and the wire axis (m0) and non-parabolicity (1/eV) of a band in one material. */
+export interface WireBandMaterial {
+  readonly V: number;
+  /** Mass across the wire in the growth plane (x). */
+  readonly mass: number;
+  /** Mass along the growth axis [001] (y). */
+  readonly massY: number;
+  /** Mass along the wire axis (in the growth plane). */
+  readonly axis: number;
+  readonly alpha: number;
+}
+
 /**
- * Potential (particle sense: −Ev for holes, see engine/profile.ts) and masses of a band.
+ * Potential (particle sense: −Ev for holes, see engine/profile.ts), masses and non-parabolicity
+ * of a band in one material of the cross-section.
  *
- * Electron: isotropic Γ mass. Holes: the cross-section spans the growth axis z and one in-plane
- * direction, where the axial approximation gives 1/m_z = γ1 ∓ 2γ2 and 1/m∥ = γ1 ± γ2 (heavy/light);
- * a scalar-mass equation cannot hold both, so the cross-section uses the mean inverse mass
- * 1/m = (1/m_z + 1/m∥)/2 (= γ1 ∓ γ2/2), which keeps the sum of the two kinetic terms right for a
- * state of equal extent in both directions, and ignores heavy/light mixing. Along the wire axis
- * (in the growth plane) the free motion has the in-plane mass m∥.
+ * y is the growth axis [001]. Electrons: the isotropic Γ mass, with the two-band α when the
+ * settings ask for it (as for a well). Holes: the diagonal of the Luttinger Hamiltonian with J
+ * quantised along [001] (J. M. Luttinger, Phys. Rev. 102, 1030 (1956); the single-band reduction
+ * of S. L. Chuang, Physics of Optoelectronic Devices, ch. 4, from memory), P ± Q with P = γ1 k²,
+ * Q = γ2 (k∥² − 2k_z²) (k∥ in the (001) plane, k_z along [001], ħ²/2m0 units): along [001]
+ * m_hh = 1/(γ1 − 2γ2), m_lh = 1/(γ1 + 2γ2) (mhh_z, mlh_z); every direction in the (001) plane,
+ * across the wire (x) and along it, has 1/(γ1 + γ2) and 1/(γ1 − γ2) (mhh_par, mlh_par,
+ * materials/masses.ts). The diagonal is isotropic in the (001) plane, so a wire along [110] and
+ * one along [100] get the same masses: the in-plane anisotropy (γ3 ≠ γ2) lives only in the
+ * heavy/light-hole coupling terms R and S, which this single-band model leaves out together with
+ * the mixing itself (the axial approximation of the in-plane masses). Every part of the
+ * cross-section shares the [001] growth axis: a part grown along another axis (an arm overgrown
+ * on a cleaved (110) edge) is not represented. Holes are parabolic, as in wells.
  */
-export function bandMaterial(m: WireMaterial, band: BandName): { readonly V: number; readonly mass: number; readonly axis: number } {
+export function bandMaterial(m: WireMaterial, band: BandName, nonparabolic: boolean): WireBandMaterial {
   const b = m.bands;
   switch (band) {
     case 'electron':
-      return { V: b.Ec, mass: b.me, axis: b.me };
+      return { V: b.Ec, mass: b.me, massY: b.me, axis: b.me, alpha: nonparabolic ? b.alpha : 0 };
     case 'heavy_hole':
-      return { V: -b.Ehh, mass: 2 / (1 / b.mhh_z + 1 / b.mhh_par), axis: b.mhh_par };
+      return { V: -b.Ehh, mass: b.mhh_par, massY: b.mhh_z, axis: b.mhh_par, alpha: 0 };
     case 'light_hole':
-      return { V: -b.Elh, mass: 2 / (1 / b.mlh_z + 1 / b.mlh_par), axis: b.mlh_par };
+      return { V: -b.Elh, mass: b.mlh_par, massY: b.mlh_z, axis: b.mlh_par, alpha: 0 };
   }
 }
+
+/**
+ * Lowest level (particle sense, eV) of a parent well: the part's material, `thickness` across it,
+ * in the barrier material, solved exactly by the 1-D transfer solver (engine/solver1d.ts) with the
+ * masses across it (massY when it lies along y, else mass) and the same α. The cross-section
+ * energies it is compared with are Richardson-extrapolated to zero grid spacing, i.e. estimates
+ * of the same continuum equation this solves exactly; undefined when the part binds nothing.
+ */
+function parentWellGround(well: ParentWell, inside: WireBandMaterial, barrier: WireBandMaterial, band: BandName): number | undefined {
+  const across = (t: WireBandMaterial): number => (well.across === 'y' ? t.massY : t.mass);
+  const outer = { V: barrier.V, mass: across(barrier), alpha: barrier.alpha, massInPlane: barrier.axis };
+  const profile: BandProfile = {
+    band,
+    slices: [{ width_nm: well.thickness_nm, V: inside.V, mass: across(inside), alpha: inside.alpha, massInPlane: inside.axis, layer: 0 }],
+    left: outer,
+    right: outer,
+    sign: band === 'electron' ? 1 : -1,
+    openEdge: barrier.V,
+  };
+  return solveBand(profile, { maxStates: 1 }).states[0]?.energy;
+}
+
+/** The continuum threshold of a band in the particle sense (energies in eV, particle sense; see absolute). */
+function wireThreshold(structure: WireStructure, table: readonly WireBandMaterial[], band: BandName): WireThreshold {
+  const barrier = table[0]!;
+  const parentWells = structure.parentWells.map((w): ParentWellLevel => ({
+    field: w.field,
+    formula: structure.materials[w.material]!.formula,
+    thickness_nm: w.thickness_nm,
+    across: w.across,
+    mass: w.across === 'y' ? table[w.material]!.massY : table[w.material]!.mass,
+    ground_eV: parentWellGround(w, table[w.material]!, barrier, band) ?? null,
+  }));
+  let lowest: ParentWellLevel | undefined;
+  for (const w of parentWells) if (w.ground_eV !== null && w.ground_eV < barrier.V && (!lowest || w.ground_eV < lowest.ground_eV!)) lowest = w;
+  return lowest
+    ? { energy_eV: lowest.ground_eV!, source: 'parent-well', field: lowest.field, barrierEdge_eV: barrier.V, parentWells }
+    : { energy_eV: barrier.V, source: 'barrier', field: 'wire.barrier', barrierEdge_eV: barrier.V, parentWells };
+}
+
+/** A particle-sense threshold on the absolute scale (holes: −E). */
+const absolute = (t: WireThreshold, sign: number): WireThreshold => ({
+  ...t,
+  energy_eV: sign * t.energy_eV,
+  barrierEdge_eV: sign * t.barrierEdge_eV,
+  parentWells: t.parentWells.map((w) => ({ ...w, ground_eV: w.ground_eV === null ? null : sign * w.ground_eV })),
+});
 
 /** The outer box: the shape's bounds plus the margin, widened to a whole number of coarse cells so every refined grid nests in it. */
 export function wireBox(s: WireStructure): CrossSectionBox {
@@ -124,13 +246,22 @@ export interface WireSolveOptions {
 }
 
 /**
- * Bound subbands, transitions, 1-D DOS and |ψ|² maps of a wire structure.
+ * Wire subbands, the continuum threshold, transitions, 1-D DOS and |ψ|² maps of a wire structure.
  *
- * Per band, the cross-section is sampled (cell-averaged V and m) at h, h/2 (and h/4) and solved
- * with solveCrossSectionConverged (BenDaniel–Duke, Richardson-extrapolated to the tolerance);
- * the outer wall is a hard (Dirichlet) wall `margin` outside the shape, so a state within about
- * one decay length ħ/√(2mΔ) of the barrier edge is pushed up slightly. States at or above the
- * barrier edge are box states of the wall, not of the wire, and are dropped. Units: eV, nm, m0.
+ * Per band, the cross-section is sampled (cell-averaged V and masses, see bandMaterial for the
+ * mass tensor) at h, h/2 (and h/4) and solved with solveCrossSectionConverged (BenDaniel–Duke,
+ * non-parabolic electrons self-consistent per state when the settings ask, Richardson-extrapolated
+ * to the tolerance); the outer wall is a hard (Dirichlet) wall `margin` outside the shape, so a
+ * state within about one decay length ħ/√(2mΔ) of the barrier edge is pushed up slightly.
+ *
+ * The continuum threshold is the barrier edge for a rectangle or circle; for a t-shape or a union
+ * it is the lowest 1-D level of the parent wells (each drawn arm, stem or rectangle extended
+ * without end along its long direction; a square rectangle both ways), if below the barrier edge:
+ * the 2-D continuum of such a well starts there, and states of the cross-section above it are
+ * its states cut off by the drawn lengths. Only states bound below the threshold by more than the
+ * band's error estimate are wire subbands (e1, hh1…); the others below the barrier edge are
+ * reported as parent-well states (pw:e1…), and those at or above the barrier edge, box states of
+ * the outer wall, are dropped. Units: eV, nm, m0.
  */
 export function solveWireStructure(structure: WireStructure, options: WireSolveOptions = {}): WireSolveResult {
   const settings = structure.settings;
@@ -140,12 +271,14 @@ export function solveWireStructure(structure: WireStructure, options: WireSolveO
   const wanted = (band: BandName): number => options.states?.[band] ?? settings.states;
   if (BANDS.every((b) => wanted(b) === 0)) throw new InputError('bad-value', 'states: every band is skipped (0 states); ask for at least one subband of one band', 'states');
   for (const band of BANDS) {
-    const table = structure.materials.map((m) => bandMaterial(m, band));
+    const table = structure.materials.map((m) => bandMaterial(m, band, settings.nonparabolic));
     const sign = band === 'electron' ? 1 : -1;
     const barrier = table[0]!.V;
     const vmin = Math.min(...table.map((t) => t.V));
+    const threshold = wireThreshold(structure, table, band);
+    const edge = threshold.energy_eV;
     if (wanted(band) === 0) {
-      bands[band] = { states: [], edge_eV: sign * vmin, barrier_eV: sign * barrier, evaluations: 0, errorEstimate_meV: 0, extrapolated: false, converged: true };
+      bands[band] = { states: [], edge_eV: sign * vmin, barrier_eV: sign * edge, threshold: absolute(threshold, sign), parentWellStates: [], evaluations: 0, errorEstimate_meV: 0, extrapolated: false, converged: true };
       continue;
     }
     const at = (x: number, y: number): CrossSectionMaterial => table[materialAt(structure, x, y)]!;
@@ -155,19 +288,33 @@ export function solveWireStructure(structure: WireStructure, options: WireSolveO
     const dx = box.width_nm / (nx + 1);
     const dy = box.height_nm / (ny + 1);
     const dxdy = dx * dy;
-    const kept = r.energies.flatMap((e, k) => (e < barrier ? [{ e, psi: r.psi[k]! }] : []));
-    // 1/m along the axis at each node, for the probability-weighted axis mass.
-    const axis = new Float64Array(nx * ny);
-    for (let j = 0; j < ny; j++) for (let i = 0; i < nx; i++) axis[i + nx * j] = 1 / table[materialAt(structure, box.x0_nm + (i + 1) * dx, box.y0_nm + (j + 1) * dy)]!.axis;
+    const region = new Int32Array(nx * ny);
+    for (let j = 0; j < ny; j++) for (let i = 0; i < nx; i++) region[i + nx * j] = materialAt(structure, box.x0_nm + (i + 1) * dx, box.y0_nm + (j + 1) * dy);
+    const inBand = r.energies.flatMap((e, k) => (e < barrier ? [{ e, psi: r.psi[k]! }] : []));
+    // Bound by more than the error estimate: a state of the parent wells just above the threshold must not pass for a subband through discretisation error.
+    const isSubband = (e: number): boolean => edge - e > r.errorEstimate_eV;
+    const kept = inBand.filter((s) => isSubband(s.e));
     const states = kept.map(({ e, psi }, k): WireStateResult => {
+      // 1/m along the axis at each node at the state's energy, for the probability-weighted axis mass.
       let inv = 0;
-      for (let n = 0; n < psi.length; n++) inv += psi[n]! * psi[n]! * axis[n]! * dxdy;
-      return { label: `${PREFIX[band]}${k + 1}`, index: k + 1, energy_eV: sign * e, confinement_meV: (e - vmin) * 1000, bound: true, mass_axis: 1 / inv };
+      for (let n = 0; n < psi.length; n++) {
+        const t = table[region[n]!]!;
+        inv += (psi[n]! * psi[n]! * dxdy) / (t.axis * (1 + t.alpha * (e - t.V)));
+      }
+      return { label: `${PREFIX[band]}${k + 1}`, index: k + 1, energy_eV: sign * e, confinement_meV: (e - vmin) * 1000, bound: true, binding_meV: (edge - e) * 1000, mass_axis: 1 / inv };
+    });
+    const parentWellStates = inBand.filter((s) => !isSubband(s.e)).map(({ e, psi }, k): ParentWellState => {
+      const shares = new Float64Array(structure.materials.length);
+      for (let n = 0; n < psi.length; n++) shares[region[n]!] += psi[n]! * psi[n]! * dxdy;
+      const most = shares.indexOf(Math.max(...shares));
+      return { label: `pw:${PREFIX[band]}${k + 1}`, energy_eV: sign * e, binding_meV: (edge - e) * 1000, where: structure.materials[most]!.field.replace(/\.material$/, ''), share: shares[most]! };
     });
     bands[band] = {
       states,
       edge_eV: sign * vmin,
-      barrier_eV: sign * barrier,
+      barrier_eV: sign * edge,
+      threshold: absolute(threshold, sign),
+      parentWellStates,
       evaluations: r.iterations,
       errorEstimate_meV: r.errorEstimate_eV * 1000,
       extrapolated: r.extrapolated,
@@ -207,7 +354,7 @@ export function solveWireStructure(structure: WireStructure, options: WireSolveO
   return {
     status: !bound ? 'no-bound-state' : unconverged.length > 0 ? 'not-converged' : 'ok',
     message: [
-      missing.length === 0 ? 'all three bands have bound states' : `no bound state in: ${missing.join(', ')}`,
+      missing.length === 0 ? 'all three bands have wire subbands' : `no state bound below the continuum threshold in: ${missing.join(', ')}`,
       ...(unconverged.length > 0 ? [`eigen-solver hit its iteration cap in: ${unconverged.join(', ')}`] : []),
     ].join('; '),
     structure,
@@ -225,7 +372,7 @@ const DOS_POINTS = 201;
 /**
  * The 1-D density of states of each band: per subband √(2m)/(πħ) with m the axis mass, and the
  * Lorentzian-broadened sum Σ √(2m)/(πħ)(E − Eₙ)^(−1/2) (dos1d, engine/observables/dos.ts) on
- * DOS_POINTS energies from 10 Γ before the first edge to the barrier edge. Holes are evaluated in
+ * DOS_POINTS energies from 10 Γ before the first edge to the continuum threshold. Holes are evaluated in
  * the particle sense and reported on the absolute scale.
  */
 function wireDos(bands: Readonly<Record<BandName, WireBandResult>>, gamma: number): WireDos {

@@ -13,7 +13,8 @@
 import { InputError } from '../errors.js';
 import type { Spec } from '../spec/schema.js';
 import { parseEnergy, parseLength, splitQuantity } from '../spec/units.js';
-import { buildStructure, variablesOf, type LayerBands, type OffsetRule } from '../structure.js';
+import { buildStructure, variablesOf, type LayerBands, type OffsetRule, type StructureModels } from '../structure.js';
+import { DEFAULT_SETTINGS } from '../solve.js';
 import type { ResolvedMaterial } from '../../materials/types.js';
 import type { WireSpec } from './schema.js';
 
@@ -25,6 +26,21 @@ export interface WireMaterial {
   readonly material: ResolvedMaterial;
   /** Band edges after the offset rule and masses (as for a well layer). */
   readonly bands: LayerBands;
+}
+
+/**
+ * A parent well of the cross-section: one drawn arm, stem or continuing union rectangle extended without end
+ * along its long direction, i.e. a 1-D well of its thickness across it, in the barrier. Its 2-D
+ * continuum starts at its lowest 1-D level, so a wire state is bound only below that.
+ */
+export interface ParentWell {
+  /** Spec field of the part, e.g. "wire.shape.arm" or "wire.shape.parts[1]". */
+  readonly field: string;
+  /** Index into materials. */
+  readonly material: number;
+  readonly thickness_nm: number;
+  /** Axis the thickness lies along: 'y' is the growth axis [001], 'x' the in-plane direction across the wire. */
+  readonly across: 'x' | 'y';
 }
 
 /** A painted piece of the cross-section: later primitives cover earlier ones. Lengths nm. */
@@ -43,6 +59,8 @@ export interface WireSettings {
   readonly tolerance_eV: number;
   /** Lorentzian half width of the sampled 1-D DOS (eV). */
   readonly broadening_eV: number;
+  /** Energy-dependent (two-band) electron mass, from the spec's solver.nonparabolic as for a well. */
+  readonly nonparabolic: boolean;
 }
 
 export interface WireStructure {
@@ -50,9 +68,13 @@ export interface WireStructure {
   readonly substrate: string | null;
   readonly temperature_K: number;
   readonly offsetRule: OffsetRule;
+  /** The model choices the materials were resolved with (the spec's solver section), as for a well. */
+  readonly models: StructureModels;
   readonly shape: WireSpec['shape']['kind'];
   readonly materials: readonly WireMaterial[];
   readonly primitives: readonly Primitive[];
+  /** The parent wells whose 2-D continuum bounds the wire subbands (none for a rectangle or circle: the barrier edge does). */
+  readonly parentWells: readonly ParentWell[];
   /** Each resolved dimension by its spec field (nm), e.g. {"wire.shape.width": 12}. */
   readonly dimensions: Readonly<Record<string, number>>;
   /** Bounding box of the shape (nm). */
@@ -63,7 +85,7 @@ export interface WireStructure {
   readonly lengthVariables: Readonly<Record<string, { readonly field: string; readonly nm: number; readonly monolayer_nm: number }>>;
 }
 
-export const DEFAULT_WIRE_SETTINGS: WireSettings = { grid_nm: 0.5, margin_nm: 10, states: 6, tolerance_eV: 5e-4, broadening_eV: 1e-3 };
+export const DEFAULT_WIRE_SETTINGS: WireSettings = { grid_nm: 0.5, margin_nm: 10, states: 6, tolerance_eV: 5e-4, broadening_eV: 1e-3, nonparabolic: DEFAULT_SETTINGS.nonparabolic };
 
 /** Default extent of a T-wire's parent wells in the cross-section (nm). */
 const ARM_LENGTH_NM = 40;
@@ -86,7 +108,7 @@ function materialFields(wire: WireSpec): { field: string; name: string }[] {
 }
 
 /** Resolves the materials through the well's structure builder, renaming its stack fields to the wire's. */
-function resolveMaterials(spec: Spec, wire: WireSpec, values: Readonly<Record<string, number>>): { materials: WireMaterial[]; substrate: string | null; temperature_K: number; offsetRule: OffsetRule } {
+function resolveMaterials(spec: Spec, wire: WireSpec, values: Readonly<Record<string, number>>): { materials: WireMaterial[]; substrate: string | null; temperature_K: number; offsetRule: OffsetRule; models: StructureModels } {
   const fields = materialFields(wire);
   const stack = fields.map((f) => ({ material: f.name, thickness: '1 nm' }));
   const { wire: _omit, ...rest } = spec;
@@ -100,7 +122,7 @@ function resolveMaterials(spec: Spec, wire: WireSpec, values: Readonly<Record<st
     throw new InputError(e.code, e.message.split(m[0]).join(to), e.field!.replace(m[0], to));
   }
   const materials = built.layers.map((l, i): WireMaterial => ({ field: fields[i]!.field, formula: l.formula, material: l.material, bands: l.bands[0]! }));
-  return { materials, substrate: built.substrate, temperature_K: built.temperature_K, offsetRule: built.offsetRule };
+  return { materials, substrate: built.substrate, temperature_K: built.temperature_K, offsetRule: built.offsetRule, models: built.models };
 }
 
 /** A length field: a quantity (nm, Å, ML of `monolayer_nm`) or a length variable. */
@@ -143,7 +165,7 @@ const nmOnly = (x: string | number): number | string => {
 export function buildWireStructure(spec: Spec, values: Readonly<Record<string, number>>): WireStructure {
   const wire = spec.wire;
   if (!wire) throw new InputError('schema', 'wire: this spec has no "wire:" section; solve it as a layer stack', 'wire');
-  const { materials, substrate, temperature_K, offsetRule } = resolveMaterials(spec, wire, values);
+  const { materials, substrate, temperature_K, offsetRule, models } = resolveMaterials(spec, wire, values);
   const dimensions: Record<string, number> = {};
   const lengthVariables: Record<string, WireStructure['lengthVariables'][string]> = {};
   const ml = (index: number): number => materials[index]!.material.monolayer_nm;
@@ -154,6 +176,7 @@ export function buildWireStructure(spec: Spec, values: Readonly<Record<string, n
     return v;
   };
   const primitives: Primitive[] = [];
+  const parentWells: ParentWell[] = [];
   const s = wire.shape;
   switch (s.kind) {
     case 'rectangle': {
@@ -177,6 +200,8 @@ export function buildWireStructure(spec: Spec, values: Readonly<Record<string, n
       if (!(la > ws)) throw new InputError('bad-value', `wire.shape.arm.length: must exceed the stem width ${ws} nm, got ${la} nm; lengthen the arm`, 'wire.shape.arm.length');
       primitives.push({ kind: 'rect', x0: -ws / 2, x1: ws / 2, y0: -ls, y1: 0, material: 1 });
       primitives.push({ kind: 'rect', x0: -la / 2, x1: la / 2, y0: 0, y1: wa, material: 2 });
+      // The stem stands along y and the arm lies along x whatever lengths are drawn.
+      parentWells.push({ field: 'wire.shape.stem', material: 1, thickness_nm: ws, across: 'x' }, { field: 'wire.shape.arm', material: 2, thickness_nm: wa, across: 'y' });
       break;
     }
     case 'union':
@@ -184,7 +209,13 @@ export function buildWireStructure(spec: Spec, values: Readonly<Record<string, n
         const f = `wire.shape.parts[${i}]`;
         const x = len(p.x, `${f}.x`, i + 1, false);
         const y = len(p.y, `${f}.y`, i + 1, false);
-        primitives.push({ kind: 'rect', x0: x, x1: x + len(p.width, `${f}.width`, i + 1), y0: y, y1: y + len(p.height, `${f}.height`, i + 1), material: i + 1 });
+        const w = len(p.width, `${f}.width`, i + 1);
+        const h = len(p.height, `${f}.height`, i + 1);
+        primitives.push({ kind: 'rect', x0: x, x1: x + w, y0: y, y1: y + h, material: i + 1 });
+        // Only a part declared to continue is a parent well; a square one has no long direction, so both
+        // extensions count and the lower continuum bounds the subbands.
+        if (p.continues && w >= h) parentWells.push({ field: f, material: i + 1, thickness_nm: h, across: 'y' });
+        if (p.continues && h >= w) parentWells.push({ field: f, material: i + 1, thickness_nm: w, across: 'x' });
       });
       break;
   }
@@ -201,6 +232,7 @@ export function buildWireStructure(spec: Spec, values: Readonly<Record<string, n
     states: wire.states ?? d.states,
     tolerance_eV: settingOf(wire.tolerance, parseEnergy, 'wire.tolerance', d.tolerance_eV, (t) => t > 0, 'must be a positive energy such as "0.5 meV"'),
     broadening_eV: settingOf(wire.broadening, parseEnergy, 'wire.broadening', d.broadening_eV, (g) => g > 0, 'must be a positive energy such as "1 meV"'),
+    nonparabolic: spec.solver?.nonparabolic ?? d.nonparabolic,
   };
   const box = Math.max(bounds.x1 - bounds.x0, bounds.y1 - bounds.y0) + 2 * settings.margin_nm;
   if (box / settings.grid_nm > 400) {
@@ -211,9 +243,11 @@ export function buildWireStructure(spec: Spec, values: Readonly<Record<string, n
     substrate,
     temperature_K,
     offsetRule,
+    models,
     shape: s.kind,
     materials,
     primitives,
+    parentWells,
     dimensions,
     bounds,
     settings,

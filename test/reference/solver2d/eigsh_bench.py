@@ -2,7 +2,7 @@
 """Speed reference for engine/solver2d.ts: scipy eigsh shift-invert on the same 5-point matrix.
 
 Builds the BenDaniel-Duke operator of engine/solver2d/operator.ts (1/m between nodes as
-2/(m_a + m_b), the node's own mass at the Dirichlet wall, nodes at x0 + i*h inside a box with the
+2/(m_a + m_b), with m_x on x-edges and m_y on y-edges, the node's own mass at the Dirichlet wall, nodes at x0 + i*h inside a box with the
 wall one spacing outside) for a rectangular or circular wire and prints the median wall and CPU
 time of repeated eigsh(A, k, sigma=min(V), which='LM') runs (factorisation included) and the energies.
 
@@ -33,11 +33,13 @@ def case(kind, n):
     return np.where(inside, 0.0, 0.3), np.where(inside, 0.067, 0.092), h
 
 
-def operator(V, m, dx, dy):
+def operator(V, m, dx, dy, my=None):
+    """The 5-point operator; m is the mass along x, my the mass along y (default m): a diagonal mass tensor."""
+    my = m if my is None else my
     ny, nx = V.shape
     cx, cy = HBAR2_OVER_2M0 / dx**2, HBAR2_OVER_2M0 / dy**2
     ex = 2 * cx / (m[:, :-1] + m[:, 1:])  # edge (i, i+1) in row j
-    ey = 2 * cy / (m[:-1, :] + m[1:, :])  # edge (j, j+1) in column i
+    ey = 2 * cy / (my[:-1, :] + my[1:, :])  # edge (j, j+1) in column i
     diag = V.copy()
     diag[:, :-1] += ex
     diag[:, 1:] += ex
@@ -45,8 +47,8 @@ def operator(V, m, dx, dy):
     diag[1:, :] += ey
     diag[:, 0] += cx / m[:, 0]
     diag[:, -1] += cx / m[:, -1]
-    diag[0, :] += cy / m[0, :]
-    diag[-1, :] += cy / m[-1, :]
+    diag[0, :] += cy / my[0, :]
+    diag[-1, :] += cy / my[-1, :]
     N = nx * ny
     idx = np.arange(N).reshape(ny, nx)
     rows = [idx.ravel(), idx[:, :-1].ravel(), idx[:-1, :].ravel()]
