@@ -6,13 +6,21 @@
  * (used for sharding) and its spec hash are the same on every machine.
  */
 import { createHash } from 'node:crypto';
-import { dirname, resolve } from 'node:path';
+import { statSync } from 'node:fs';
+import { dirname, extname, resolve } from 'node:path';
 import { z } from 'zod';
 import { InputError } from '../errors.js';
 import { DEFAULT_DESIGN_OPTIONS, type DesignOptions } from '../design/search.js';
 import { describeIssue, fieldName, fieldPath, parseYamlText, readInputText, validateSpec } from '../spec/load.js';
 import type { Spec } from '../spec/schema.js';
 import { splitQuantity } from '../spec/units.js';
+
+/** Largest campaign file (and base spec it names) read: far above any real one, far below what exhausts memory. */
+export const MAX_CAMPAIGN_BYTES = 4 * 1024 * 1024;
+/** Most jobs one campaign may expand to (each holds its validated spec, about 2 kB in memory and in the store). */
+export const MAX_JOBS = 100_000;
+/** What a base spec named by path must end with: a spec, never any other file. */
+const SPEC_EXTENSIONS = ['.yaml', '.yml', '.json'];
 
 const scalar = z.union([z.string(), z.number(), z.boolean()]);
 const range = z.object({ from: z.union([z.string(), z.number()]), to: z.union([z.string(), z.number()]), step: z.union([z.string(), z.number()]) }).strict();
@@ -87,7 +95,7 @@ function expandRange(path: string, r: z.infer<typeof range>): unknown[] {
   if (!from || !to || !step) throw new InputError('bad-value', `sweep.${path}: from, to and step must be numbers or quantities such as "1300 nm", got ${JSON.stringify(r)}`);
   if (from.unit !== to.unit || from.unit !== step.unit) throw new InputError('bad-value', `sweep.${path}: from, to and step must share one unit, got "${from.unit}", "${to.unit}", "${step.unit}"; write them in the same unit`);
   const n = Math.floor((to.value - from.value) / step.value + 1e-9) + 1;
-  if (!(step.value > 0) || !(n >= 1) || n > 100_000) throw new InputError('bad-value', `sweep.${path}: needs step > 0 and from ≤ to (at most 100000 values), got from ${r.from}, to ${r.to}, step ${r.step}`);
+  if (!(step.value > 0) || !(n >= 1) || n > MAX_JOBS) throw new InputError('bad-value', `sweep.${path}: needs step > 0 and from ≤ to (at most ${MAX_JOBS} values), got from ${r.from}, to ${r.to}, step ${r.step}`);
   return Array.from({ length: n }, (_, k) => {
     const v = Number((from.value + k * step.value).toPrecision(12));
     return from.unit === '' && typeof r.from === 'number' ? v : `${v} ${from.unit}`.trim();
@@ -133,6 +141,11 @@ export function expandCampaign(file: CampaignFile, baseSpec: unknown, origin: st
     const values = Array.isArray(v) ? v : expandRange(path, v);
     return { path, name: axisName(path), values: values.map((value, k) => ({ value, label: labelOf(value, k) })) };
   });
+  // Counted before anything is expanded: the product grows faster than any one axis.
+  const count = axes.reduce((n, a) => n * a.values.length, 1);
+  if (count > MAX_JOBS) {
+    throw new InputError('bad-value', `sweep: the axes give ${axes.map((a) => a.values.length).join(' × ')} = ${count} jobs, more than the limit of ${MAX_JOBS} per campaign; split the sweep over several campaign files or use coarser steps`, 'sweep');
+  }
   let combos: AxisValue[][] = [[]];
   for (const axis of axes) combos = combos.flatMap((c) => axis.values.map((v) => [...c, v]));
   const base = jobOptions(file);
@@ -182,13 +195,37 @@ export function parseCampaignText(text: string, origin: string, dir: string): Ca
   }
   if (typeof r.data.spec === 'string') {
     const specPath = resolve(dir, r.data.spec);
-    const base = parseYamlText(readInputText(specPath, 'base spec'), specPath);
+    // Only a spec file is read, and a file that is not one is never echoed: its content could be anything.
+    if (!SPEC_EXTENSIONS.includes(extname(specPath).toLowerCase())) {
+      throw new InputError('bad-value', `${origin}: spec: expected the path of a spec file ending in ${SPEC_EXTENSIONS.join(', ')}, got ${JSON.stringify(r.data.spec)}; name the base spec file or write the spec inline${locate('spec') ? ` (line ${locate('spec')})` : ''}`, 'spec');
+    }
+    const base = parseYamlText(readBounded(specPath, 'base spec'), specPath);
+    if (base.value === null || typeof base.value !== 'object' || Array.isArray(base.value)) {
+      throw new InputError('schema', `${origin}: spec: "${specPath}" is not a spec (a mapping with at least a "stack" list); check the path`, 'spec');
+    }
     return expandCampaign(r.data, base.value, origin);
   }
   return expandCampaign(r.data, r.data.spec, origin, locate);
 }
 
+/** Reads a campaign input after checking, without reading it, that it is a file of at most MAX_CAMPAIGN_BYTES. */
+function readBounded(path: string, what: string): string {
+  let size: number | undefined;
+  try {
+    const st = statSync(path);
+    if (!st.isFile() && !st.isDirectory()) throw new InputError('io', `cannot read ${what} "${path}": it is not a regular file; give the path of a file`);
+    size = st.isFile() ? st.size : undefined;
+  } catch (e) {
+    if (e instanceof InputError) throw e;
+    // Missing or unreadable: readInputText names the problem.
+  }
+  if (size !== undefined && size > MAX_CAMPAIGN_BYTES) {
+    throw new InputError('io', `${what} "${path}" is ${(size / 1048576).toFixed(1)} MiB, more than the limit of ${MAX_CAMPAIGN_BYTES / 1048576} MiB; a campaign is one spec and its sweep axes: check that this is the right file`);
+  }
+  return readInputText(path, what);
+}
+
 /** Reads a campaign file. */
 export function loadCampaignFile(path: string): Campaign {
-  return parseCampaignText(readInputText(path, 'campaign file'), path, dirname(resolve(path)));
+  return parseCampaignText(readBounded(path, 'campaign file'), path, dirname(resolve(path)));
 }

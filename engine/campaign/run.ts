@@ -3,12 +3,13 @@
  * pool; every finished start is stored at once (the checkpoint), so a resumed run re-runs only
  * the starts the store lacks and then ranks all of them. Starts are deterministic in (spec, seed,
  * index), so the ranking equals that of an uninterrupted run. A stop request is honoured at the
- * next checkpoint.
+ * next checkpoint. An error of the store's environment (disk full, I/O, read-only) is not the job's
+ * failure: the run stops there, the job goes back to the queue, and the error is thrown on.
  */
 import { isInputError } from '../errors.js';
 import { runTasks } from '../pool.js';
 import { designTasks, rankDesigns } from '../design/search.js';
-import type { RunStore } from '../store/store.js';
+import { StoreError, type RunStore } from '../store/store.js';
 import type { Campaign, Job } from './campaign.js';
 
 /** A slice of the jobs for one machine: shard i of n (1-based) takes the jobs with index mod n = i − 1. */
@@ -36,6 +37,8 @@ export interface RunOptions {
   readonly onProgress?: (p: CampaignProgress) => void;
   /** Polled at every checkpoint; true stops the run there. */
   readonly shouldStop?: () => boolean;
+  /** Re-queue this shard's failed jobs (keeping their stored starts) before running. */
+  readonly retryFailed?: boolean;
 }
 
 export type RunStatus = 'complete' | 'stopped';
@@ -49,8 +52,12 @@ export interface RunSummary {
   /** Jobs finished in this run, of which failed. */
   readonly ran: number;
   readonly failed: readonly { readonly job: string; readonly message: string }[];
+  /** Failed jobs of this shard in the store once the run ends: this run's and earlier runs' (the exit code counts these). */
+  readonly failedStored: readonly { readonly job: string; readonly message: string }[];
   /** Jobs found `running` (left by a crash) and re-queued. */
   readonly requeued: number;
+  /** Failed jobs re-queued by retryFailed. */
+  readonly retried: number;
   /** Starts run now; starts taken from the store. */
   readonly startsRun: number;
   readonly startsReused: number;
@@ -63,7 +70,8 @@ export async function runCampaign(campaign: Campaign, store: RunStore, options: 
   store.bindCampaign(campaign.hash, campaign.title);
   const requeued = store.requeueStale();
   const jobs = campaign.jobs.filter((j) => inShard(j, options.shard));
-  for (const j of jobs) store.enqueue({ name: j.name, index: j.index, kind: j.kind, hash: j.hash, spec: j.spec, options: j.options, seed: j.options.seed });
+  store.enqueue(jobs.map((j) => ({ name: j.name, index: j.index, kind: j.kind, hash: j.hash, spec: j.spec, options: j.options, seed: j.options.seed })));
+  const retried = options.retryFailed ? store.retryFailed(jobs.map((j) => j.name)) : 0;
   const stop = options.shouldStop ?? (() => false);
   let best = { loss: Infinity, job: '' };
   const note = (job: string, loss: number): void => {
@@ -78,7 +86,11 @@ export async function runCampaign(campaign: Campaign, store: RunStore, options: 
   const failed: { job: string; message: string }[] = [];
   const report = (job: string, startsDone: number, startsTotal: number): void =>
     options.onProgress?.({ jobsDone, jobsTotal: jobs.length, job, startsDone, startsTotal, bestLoss: best.loss, bestJob: best.job });
-  const summary = (status: RunStatus): RunSummary => ({ status, jobs: jobs.length, alreadyDone, ran, failed, requeued, startsRun, startsReused });
+  const summary = (status: RunStatus): RunSummary => {
+    const mine = new Set(jobs.map((j) => j.name));
+    const failedStored = store.jobs().filter((j) => j.state === 'failed' && mine.has(j.name)).map((j) => ({ job: j.name, message: j.message ?? '' }));
+    return { status, jobs: jobs.length, alreadyDone, ran, failed, failedStored, requeued, retried, startsRun, startsReused };
+  };
 
   for (const job of jobs) {
     if (store.job(job.name)!.state !== 'queued') continue;
@@ -111,6 +123,14 @@ export async function runCampaign(campaign: Campaign, store: RunStore, options: 
       if (e instanceof Stopped) {
         store.requeueStale();
         return summary('stopped');
+      }
+      if (e instanceof StoreError) {
+        try {
+          store.requeue(job.name);
+        } catch {
+          // The store cannot take even that: the job stays `running`, which the next run re-queues as stale.
+        }
+        throw e;
       }
       // One bad job never kills a campaign: it is recorded as failed and the others go on.
       const message = isInputError(e) ? e.message : `internal error: ${e instanceof Error ? e.message : String(e)}`;

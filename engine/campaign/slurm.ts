@@ -2,7 +2,11 @@
  * Slurm scripts for a campaign spread over a cluster: a job array with one shard per array task
  * (each writes its own store), a merge job that runs once the whole array succeeded
  * (`--dependency=afterok`), and a submit script that chains the two with `sbatch --parsable`.
+ * Every path and word comes from the user's files and folders, so none may hold a control
+ * character (a newline would end a line of the script and run the rest as a command), and each is
+ * quoted.
  */
+import { InputError } from '../errors.js';
 
 export interface SlurmPlan {
   /** Absolute path of the campaign file. */
@@ -25,15 +29,42 @@ export interface SlurmScripts {
   readonly submit: string;
 }
 
-/** POSIX shell single-quoting. */
+/**
+ * POSIX shell single-quoting. sbatch reads `#SBATCH` lines itself, not through a shell, but its
+ * reader takes the same form: quotes group a word, a backslash escapes the next character (sbatch
+ * source, src/sbatch/opt.c, _get_argument; seen).
+ */
 export const shellQuote = (s: string): string => (/^[\w@%+=:,./-]+$/.test(s) ? s : `'${s.replace(/'/g, `'\\''`)}'`);
 
+/**
+ * A folder in an sbatch filename pattern (sbatch(1), "filename pattern"): "%" must be written
+ * "%%", and a backslash anywhere turns every replacement off, which would give all array tasks one
+ * log file, so it is refused.
+ */
+function logFolder(out: string): string {
+  if (out.includes('\\')) throw new InputError('bad-value', `--out: a Slurm log path cannot hold a backslash, got ${JSON.stringify(out)}; choose a run folder without one`);
+  return out.replace(/%/g, '%%');
+}
+
+/** Refuses a control character (newline, carriage return, tab, NUL, escape…) in anything written into a script. */
+function checkWord(where: string, s: string): void {
+  const m = /[\u0000-\u001f\u007f]/.exec(s);
+  if (m) {
+    throw new InputError('bad-value', `${where}: contains the control character ${JSON.stringify(m[0])} (code ${m[0].charCodeAt(0)}), which cannot be written safely into a job script, got ${JSON.stringify(s)}; rename it without control characters`);
+  }
+}
+
 export function slurmScripts(p: SlurmPlan): SlurmScripts {
+  checkWord('campaign file', p.campaign);
+  checkWord('--out', p.out);
+  checkWord('working folder', p.workdir);
+  checkWord('job name', p.jobName);
+  for (const w of p.command) checkWord('wellsmith command', w);
   const q = shellQuote;
   const prologue = (name: string, log: string, extra: string[]): string => [
     '#!/bin/bash',
     `#SBATCH --job-name=${q(name)}`,
-    `#SBATCH --output=${q(`${p.out}/slurm/${log}`)}`,
+    `#SBATCH --output=${q(`${logFolder(p.out)}/slurm/${log}`)}`,
     ...extra,
     'set -euo pipefail',
     `cd ${q(p.workdir)}`,

@@ -89,8 +89,9 @@ export async function cli(argv: string[]): Promise<Outcome> {
         .option('shard', { type: 'string', describe: 'run only shard i of N, e.g. 2/3 (jobs with index mod N = i - 1)' })
         .option('export', { type: 'string', choices: ['csv'], describe: 'also write all ranked designs to OUT/designs.csv' })
         .option('slurm', { type: 'number', describe: 'write a Slurm job array of N shards, a dependent merge job and submit.sh to OUT/slurm; runs nothing' })
+        .option('retry-failed', { type: 'boolean', default: false, describe: 'run the failed jobs of the store again (their finished starts are kept)' })
         .option('json', { type: 'boolean', default: false, describe: 'machine-readable output on stdout' }),
-    async (a) => { outcome = await (await campaignCommand()).runCampaignCommand({ file: a.file!, out: a.out, workers: a.workers, shard: a.shard, export: a.export, slurm: a.slurm, json: a.json }); })
+    async (a) => { outcome = await (await campaignCommand()).runCampaignCommand({ file: a.file!, out: a.out, workers: a.workers, shard: a.shard, export: a.export, slurm: a.slurm, json: a.json, retryFailed: a.retryFailed }); })
     .command('merge <out> <dirs..>', 'join shard run stores into the run store of OUT (idempotent)', (y) =>
       y.positional('out', { type: 'string', demandOption: true, describe: 'run folder to merge into (created if missing)' })
         .positional('dirs', { type: 'string', array: true, demandOption: true, describe: 'shard run folders' }),

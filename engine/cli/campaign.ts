@@ -10,7 +10,7 @@ import { designsCsv } from '../campaign/export.js';
 import { runCampaign, type RunSummary, type Shard } from '../campaign/run.js';
 import { slurmScripts } from '../campaign/slurm.js';
 import { InputError } from '../errors.js';
-import { RunStore } from '../store/store.js';
+import { RunStore, StoreError } from '../store/store.js';
 import { EXIT, failure, success, type Outcome } from './exit.js';
 import { sig, table, toJson } from './format.js';
 import { writeFileAtomic } from './output.js';
@@ -24,6 +24,8 @@ export interface CampaignArgs {
   readonly export: string | undefined;
   readonly slurm: number | undefined;
   readonly json?: boolean;
+  /** Run the store's failed jobs again (--retry-failed). */
+  readonly retryFailed?: boolean;
 }
 
 /** The run folder when --out is not given: beside the campaign file, named after it. */
@@ -71,8 +73,9 @@ function describe(store: RunStore, summary: RunSummary, shard: Shard): string {
   const met = jobs.filter((j) => j.status === 'ok').length;
   return [
     table(['#', 'job', 'state', 'status', 'best loss', 'best design'], rows),
-    `${shard.count > 1 ? `shard ${shard.index}/${shard.count}: ` : ''}${summary.jobs} jobs, ${summary.alreadyDone} already finished, ${summary.ran} run now (${summary.startsRun} starts run, ${summary.startsReused} taken from the store${summary.requeued ? `, ${summary.requeued} stale job re-queued` : ''}); ${met} of the stored jobs meet every target`,
-    ...summary.failed.map((f) => `failed: ${f.job}: ${f.message}`),
+    `${shard.count > 1 ? `shard ${shard.index}/${shard.count}: ` : ''}${summary.jobs} jobs, ${summary.alreadyDone} already finished, ${summary.ran} run now (${summary.startsRun} starts run, ${summary.startsReused} taken from the store${summary.requeued ? `, ${summary.requeued} stale job re-queued` : ''}${summary.retried ? `, ${summary.retried} failed job retried` : ''}); ${met} of the stored jobs meet every target`,
+    ...summary.failedStored.map((f) => `failed: ${f.job}: ${f.message}`),
+    ...(summary.failedStored.length > 0 ? ['rerun with --retry-failed to run the failed jobs again (their finished starts are kept)'] : []),
   ].join('\n');
 }
 
@@ -90,12 +93,13 @@ export async function runCampaignCommand(args: CampaignArgs): Promise<Outcome> {
   let signal: NodeJS.Signals | undefined;
   const onSignal = (s: NodeJS.Signals): void => { signal ??= s; };
   let store: RunStore | undefined;
+  const out = args.out ?? defaultRunFolder(args.file);
+  const resume = `wellsmith campaign ${args.file} --out ${out}${args.shard ? ` --shard ${args.shard}` : ''}`;
   try {
     if (!Number.isInteger(args.workers) || args.workers < 1) throw new InputError('bad-value', `--workers: must be a whole number ≥ 1, got ${args.workers}`);
     if (args.export !== undefined && args.export !== 'csv') throw new InputError('bad-value', `--export: the only format is csv, got ${JSON.stringify(args.export)}`);
     const shard = parseShard(args.shard);
     const campaign = loadCampaignFile(args.file);
-    const out = args.out ?? defaultRunFolder(args.file);
     if (args.slurm !== undefined) return writeSlurm(campaign, args.file, out, args.slurm, args.workers);
     store = RunStore.open(out);
     process.on('SIGINT', onSignal);
@@ -103,18 +107,20 @@ export async function runCampaignCommand(args: CampaignArgs): Promise<Outcome> {
     const summary = await runCampaign(campaign, store, {
       workers: args.workers,
       shard,
+      retryFailed: args.retryFailed ?? false,
       shouldStop: () => signal !== undefined,
       onProgress: (p) => bar.update(p.jobsDone, p.jobsTotal, `${p.job} start ${p.startsDone}/${p.startsTotal} · best loss ${sig(p.bestLoss, 3)}${p.bestJob ? ` (${p.bestJob})` : ''}`),
     });
     bar.stop();
     if (summary.status === 'stopped') {
-      const resume = `wellsmith campaign ${args.file} --out ${out}${args.shard ? ` --shard ${args.shard}` : ''}`;
       return { code: 128 + (signal === 'SIGTERM' ? 15 : 2), stdout: '', stderr: `wellsmith: campaign stopped by ${signal ?? 'request'} after the last finished start; every finished start is stored in ${store.path}. Resume with: ${resume}\n` };
     }
     if (args.export === 'csv') writeFileAtomic(join(out, 'designs.csv'), designsCsv(store));
-    return success(`${args.json ? campaignJson(store, summary) : describe(store, summary, shard)}\n`, summary.failed.length > 0 ? EXIT.physics : EXIT.ok);
+    return success(`${args.json ? campaignJson(store, summary) : describe(store, summary, shard)}\n`, summary.failedStored.length > 0 ? EXIT.physics : EXIT.ok);
   } catch (e) {
     bar.stop();
+    // The run stopped on its machine (disk full, I/O error): nothing is lost, the same command resumes.
+    if (e instanceof StoreError && (e.trouble === 'full' || e.trouble === 'io' || e.trouble === 'busy')) return { code: EXIT.input, stdout: '', stderr: `wellsmith: ${e.message}. Resume with: ${resume}\n` };
     return failure(e);
   } finally {
     process.off('SIGINT', onSignal);

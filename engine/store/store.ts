@@ -2,16 +2,20 @@
  * The run store of a campaign: one SQLite file (WAL journal, every write in a transaction) in the
  * run folder. It is the only state of a run: jobs with an explicit state (queued, running, done,
  * failed), every finished start of a design search (the checkpoint), the ranked designs with their
- * full solve result, timings and provenance. A finished job is never rewritten; a `running` job
- * left by a crash is stale and re-queued when the store is opened for a run. A file that is not a
- * wellsmith store, or was written by a newer format, is refused and left untouched.
+ * full solve result, timings and provenance. A finished job is never rewritten (a failed one is
+ * re-queued only when asked); a `running` job left by a crash is stale and re-queued when the store
+ * is opened for a run. One writer at a time: the folder is locked (lock.ts). A store is created
+ * whole or not at all. A file that is not a wellsmith store, or was written by a newer format, is
+ * refused and left untouched. Errors of the machine (disk full, I/O, read-only, damaged file) are
+ * StoreErrors, never a job's failure.
  */
-import { existsSync, mkdirSync, openSync, readSync, closeSync, statSync } from 'node:fs';
-import { dirname, join } from 'node:path';
+import { accessSync, closeSync, constants, existsSync, fsyncSync, mkdirSync, openSync, readdirSync, readSync, renameSync, rmSync, statSync } from 'node:fs';
+import { basename, dirname, join, resolve } from 'node:path';
 import Database from 'better-sqlite3';
 import { InputError } from '../errors.js';
 import type { StartOutcome } from '../design/start.js';
 import type { DesignResult } from '../design/search.js';
+import { FolderLock } from './lock.js';
 import { toolVersion } from './version.js';
 
 export const STORE_FORMAT = 1;
@@ -68,12 +72,118 @@ const now = (): string => new Date().toISOString();
 /** The first 16 bytes of every SQLite 3 database file. */
 const SQLITE_MAGIC = 'SQLite format 3\0';
 
+// better-sqlite3 reads this once, when it loads SQLite (at the first `new Database`): it lets a
+// store in a read-only folder be opened as an immutable URI (openReader). Plain paths are always
+// absolute here, so no other name is read as a URI.
+process.env['SQLITE_USE_URI'] ??= '1';
+
+/** What went wrong with the machine rather than with the run: the disk, the file system, another process. */
+export type StoreTrouble = 'full' | 'io' | 'read-only' | 'busy' | 'damaged';
+
+const ADVICE: Readonly<Record<StoreTrouble, string>> = {
+  full: 'every record stored before is kept: free space (or raise the file-size limit) and run the command again',
+  io: 'every record stored before is kept: check the disk (space, file-size limit, health) and run the command again',
+  'read-only': 'reading needs no writing, but this does: copy the run folder somewhere writable and run the command there',
+  busy: 'another process is writing it: wait for that process to end and run the command again',
+  damaged: 'the store is damaged: rerun its jobs into a fresh --out folder (or restore the store from a copy)',
+};
+
+/**
+ * An error of the run store's environment (disk full, I/O error, read-only, locked, damaged): never
+ * a job's failure. An InputError, so the CLI prints it as one line and exits 2.
+ */
+export class StoreError extends InputError {
+  constructor(readonly trouble: StoreTrouble, message: string) {
+    super('io', message);
+  }
+}
+
+/** The trouble behind an SQLite result code or a file-system errno, or undefined for anything else (a bug). */
+function troubleOf(e: unknown): { trouble: StoreTrouble; what: string } | undefined {
+  if (e instanceof SyntaxError) return { trouble: 'damaged', what: `a stored record is not valid JSON (${e.message})` };
+  const code = (e as { code?: unknown } | null)?.code;
+  if (typeof code !== 'string') return undefined;
+  const why = (trouble: StoreTrouble, what: string, detail = '') => ({ trouble, what: `${what} (${code}${detail})` });
+  if (code === 'SQLITE_FULL' || code === 'ENOSPC' || code === 'EDQUOT') return why('full', 'the disk is full');
+  if (code === 'EFBIG') return why('full', 'a file-size limit was reached');
+  if (code.startsWith('SQLITE_IOERR') || code === 'EIO') return why('io', 'a disk I/O error occurred', ': a full disk, a file-size limit or a failing disk');
+  if (code.startsWith('SQLITE_READONLY') || code === 'EROFS' || code === 'EACCES' || code === 'EPERM' || code.startsWith('SQLITE_CANTOPEN') || code === 'SQLITE_PERM') return why('read-only', 'it is read-only here');
+  if (code.startsWith('SQLITE_BUSY') || code.startsWith('SQLITE_LOCKED')) return why('busy', 'another process holds it locked');
+  if (code.startsWith('SQLITE_CORRUPT') || code === 'SQLITE_NOTADB') return why('damaged', 'the file is damaged');
+  return undefined;
+}
+
+/** Runs `f`, turning an error of the environment into a StoreError naming the store and what was being done. */
+function guarded<T>(path: string, doing: string, f: () => T): T {
+  try {
+    return f();
+  } catch (e) {
+    const t = e instanceof StoreError ? undefined : troubleOf(e);
+    if (!t) throw e;
+    throw new StoreError(t.trouble, `run store "${path}": ${t.what} while ${doing}; ${ADVICE[t.trouble]}`);
+  }
+}
+
 function refuse(path: string, why: string): never {
   throw new InputError('io', `run store "${path}": ${why}; it was left untouched: use another --out folder or move that file away`);
 }
 
-/** Checks an existing file without opening it for writing: SQLite header, then our meta table and format. */
-function checkExisting(path: string): void {
+let expectedColumns: Map<string, string[]> | undefined;
+
+/** Table -> column names of the current format, read off SCHEMA itself. */
+function schemaColumns(): Map<string, string[]> {
+  if (expectedColumns) return expectedColumns;
+  const db = new Database(':memory:');
+  try {
+    db.exec(SCHEMA);
+    const tables = db.prepare("SELECT name FROM sqlite_master WHERE type = 'table'").pluck().all() as string[];
+    expectedColumns = new Map(tables.map((t) => [t, (db.prepare(`PRAGMA table_info(${t})`).all() as { name: string }[]).map((c) => c.name)]));
+    return expectedColumns;
+  } finally {
+    db.close();
+  }
+}
+
+const hasWal = (path: string): boolean => existsSync(`${path}-wal`) && statSync(`${path}-wal`).size > 0;
+
+/**
+ * Opens an existing store for reading only. In a folder that cannot be written, SQLite cannot make
+ * the -shm file a write-ahead-log database needs: with no log left to replay (no -wal file, so
+ * nothing can be writing it) the file is opened immutable (SQLite URI parameter immutable=1).
+ */
+function openReader(path: string): Database.Database {
+  const probe = (db: Database.Database): Database.Database => {
+    try {
+      db.prepare('SELECT count(*) FROM sqlite_master').get();
+      return db;
+    } catch (e) {
+      db.close();
+      throw e;
+    }
+  };
+  try {
+    return probe(new Database(path, { readonly: true, fileMustExist: true }));
+  } catch (e) {
+    const code = String((e as { code?: unknown }).code ?? '');
+    if (!(code.startsWith('SQLITE_READONLY') || code.startsWith('SQLITE_CANTOPEN'))) throw e;
+    if (hasWal(path)) {
+      throw new StoreError('read-only', `run store "${path}": was not closed cleanly and its log "${path}-wal" must be replayed, which needs write access to its folder (${code}); copy the run folder somewhere writable and open it there`);
+    }
+    const uri = `file:${path.split('/').map(encodeURIComponent).join('/')}?immutable=1`;
+    try {
+      return probe(new Database(uri, { readonly: true, fileMustExist: true }));
+    } catch {
+      throw e;
+    }
+  }
+}
+
+/**
+ * Opens an existing file as a store for reading after checking it without writing: SQLite header,
+ * our meta table and format, then every table and column of the format (a forged or truncated
+ * file is refused, exit 2).
+ */
+function inspect(path: string): Database.Database {
   if (statSync(path).size === 0) refuse(path, 'is an empty file, not a wellsmith run store');
   const fd = openSync(path, 'r');
   const head = Buffer.alloc(16);
@@ -81,45 +191,70 @@ function checkExisting(path: string): void {
   if (head.toString('latin1') !== SQLITE_MAGIC) refuse(path, 'is not an SQLite database (corrupted, or a foreign file)');
   let db: Database.Database | undefined;
   try {
-    db = new Database(path, { readonly: true, fileMustExist: true });
+    db = openReader(path);
     const hasMeta = db.prepare("SELECT count(*) FROM sqlite_master WHERE type = 'table' AND name = 'meta'").pluck().get() === 1;
     const app = hasMeta ? db.prepare("SELECT value FROM meta WHERE key = 'application'").pluck().get() : undefined;
     if (app !== APPLICATION) refuse(path, 'is an SQLite database but not a wellsmith run store');
     const format = Number(db.prepare("SELECT value FROM meta WHERE key = 'format'").pluck().get());
     if (!(format <= STORE_FORMAT)) refuse(path, `has store format ${format}, newer than this wellsmith understands (${STORE_FORMAT}); upgrade wellsmith to read it`);
-    db.prepare('SELECT count(*) FROM jobs').get();
+    for (const [table, columns] of schemaColumns()) {
+      const have = new Set((db.prepare(`PRAGMA table_info(${table})`).all() as { name: string }[]).map((c) => c.name));
+      const missing = columns.filter((c) => !have.has(c));
+      if (missing.length > 0) refuse(path, `claims to be a wellsmith run store but its table "${table}" lacks ${have.size === 0 ? 'entirely' : `the columns ${missing.join(', ')}`} (a damaged or forged file)`);
+    }
+    return db;
   } catch (e) {
-    if (e instanceof InputError) throw e;
-    refuse(path, `cannot be read as a wellsmith run store (${(e as Error).message})`);
-  } finally {
     db?.close();
+    if (e instanceof InputError) throw e;
+    const t = troubleOf(e);
+    if (t && t.trouble !== 'damaged') throw new StoreError(t.trouble, `run store "${path}": ${t.what} while opening it; ${ADVICE[t.trouble]}`);
+    refuse(path, `cannot be read as a wellsmith run store (${(e as Error).message})`);
   }
 }
 
-export class RunStore {
-  private constructor(readonly path: string, private readonly db: Database.Database) {}
+/** True when this process may write the store's folder and (if it exists) the store file. */
+function writable(path: string): boolean {
+  try {
+    accessSync(dirname(path), constants.W_OK);
+    if (existsSync(path)) accessSync(path, constants.W_OK);
+    return true;
+  } catch {
+    return false;
+  }
+}
 
-  /** Opens (or creates) the store of a run folder. `create: false` requires it to exist. */
-  /** Opens (or creates) a run store; `readonly` opens an existing one without ever writing to it (reports). */
-  static open(dir: string, { create = true, readonly = false } = {}): RunStore {
-    const path = dir.endsWith('.sqlite') ? dir : join(dir, STORE_FILE);
-    const exists = existsSync(path);
-    if (exists) checkExisting(path);
-    else if (!create || readonly) throw new InputError('io', `no run store at "${path}"; give the --out folder of a campaign run`);
-    else {
-      try {
-        mkdirSync(dirname(path), { recursive: true });
-      } catch (e) {
-        const code = (e as NodeJS.ErrnoException).code;
-        throw new InputError('io', `cannot create the run folder "${dirname(path)}"${code ? ` (${code})` : ''}; give --out a folder you can write`);
-      }
-    }
-    if (readonly) return new RunStore(path, new Database(path, { readonly: true, fileMustExist: true }));
-    const db = new Database(path);
-    db.pragma('journal_mode = WAL');
-    db.pragma('synchronous = FULL');
-    db.pragma('foreign_keys = ON');
-    if (!exists) {
+/** fsync of a folder, so a rename in it survives a power cut (where the platform allows it). */
+function syncFolder(dir: string): void {
+  try {
+    const fd = openSync(dir, 'r');
+    try { fsyncSync(fd); } finally { closeSync(fd); }
+  } catch {
+    // Some platforms and file systems cannot sync a folder; the rename is still atomic.
+  }
+}
+
+/** Temporary files of a store being created (`campaign.sqlite.PID.new` and its journal). */
+const tempOf = (path: string, pid: number): string => `${path}.${pid}.new`;
+const isTempOf = (path: string, name: string): boolean =>
+  name.startsWith(`${basename(path)}.`) && /^\.\d+\.new(-journal|-wal|-shm)?$/.test(name.slice(basename(path).length));
+
+/**
+ * Creates a complete store at `path` or nothing: schema and meta are written to a temporary file
+ * in the same folder, which is renamed into place only once committed (rename is atomic). A kill
+ * before the rename leaves only the temporary file, which the next opener (holding the lock) removes.
+ */
+function createStore(path: string): void {
+  const tmp = tempOf(path, process.pid);
+  const clean = (): void => {
+    for (const f of [tmp, `${tmp}-journal`, `${tmp}-wal`, `${tmp}-shm`]) rmSync(f, { force: true });
+  };
+  clean();
+  try {
+    // In WAL mode from the start: switching a finished file over would itself be a write that a
+    // kill could interrupt (a hot rollback journal that read-only openers cannot replay).
+    const db = new Database(tmp);
+    try {
+      db.pragma('journal_mode = WAL');
       db.transaction(() => {
         db.exec(SCHEMA);
         const put = db.prepare('INSERT INTO meta (key, value) VALUES (?, ?)');
@@ -128,16 +263,86 @@ export class RunStore {
         put.run('created_at', now());
         put.run('tool_version', toolVersion());
       })();
+    } finally {
+      // Closing the only connection checkpoints the log into the file and removes -wal and -shm.
+      db.close();
     }
-    return new RunStore(path, db);
+    renameSync(tmp, path);
+    syncFolder(dirname(path));
+  } catch (e) {
+    clean();
+    throw e;
+  }
+}
+
+export class RunStore {
+  private constructor(
+    readonly path: string,
+    private readonly db: Database.Database,
+    /** Held while open for writing; none for a store opened without write access, whose writes then fail as read-only. */
+    private readonly lock: FolderLock | undefined,
+  ) {}
+
+  /**
+   * Opens (or creates) the run store of a folder (or an .sqlite path). For writing, the folder is
+   * locked for this process (a second writer is refused, exit 2) and a missing store is created
+   * whole; a store whose folder or file cannot be written is opened for reading, so that whatever
+   * needs no writing still works. `create: false` requires the store to exist; `readonly` opens an
+   * existing one without ever writing to it or its folder (reports, merge sources).
+   */
+  static open(target: string, { create = true, readonly = false } = {}): RunStore {
+    const path = resolve(target.endsWith('.sqlite') ? target : join(target, STORE_FILE));
+    if (!existsSync(path) && (!create || readonly)) throw new InputError('io', `no run store at "${path}"; give the --out folder of a campaign run`);
+    if (readonly) return new RunStore(path, inspect(path), undefined);
+    try {
+      mkdirSync(dirname(path), { recursive: true });
+    } catch (e) {
+      const code = (e as NodeJS.ErrnoException).code;
+      throw new InputError('io', `cannot create the run folder "${dirname(path)}"${code ? ` (${code})` : ''}; give --out a folder you can write`);
+    }
+    if (!writable(path)) {
+      if (!existsSync(path)) throw new StoreError('read-only', `run store "${path}": cannot be created, the folder is read-only; give --out a folder you can write`);
+      return new RunStore(path, inspect(path), undefined);
+    }
+    const lock = guarded(path, 'locking its folder', () => FolderLock.acquire(`${path}.lock`, `run folder "${dirname(path)}"`));
+    try {
+      return guarded(path, 'opening it for writing', () => {
+        for (const f of readdirSync(dirname(path))) if (isTempOf(path, f)) rmSync(join(dirname(path), f), { force: true });
+        if (existsSync(path)) inspect(path).close();
+        else createStore(path);
+        const db = new Database(path, { fileMustExist: true });
+        try {
+          db.pragma('journal_mode = WAL');
+          db.pragma('synchronous = FULL');
+          db.pragma('foreign_keys = ON');
+        } catch (e) {
+          db.close();
+          throw e;
+        }
+        return new RunStore(path, db, lock);
+      });
+    } catch (e) {
+      lock.release();
+      throw e;
+    }
   }
 
+  /** Runs one store operation, naming it in any error of the environment. */
+  private guard<T>(doing: string, f: () => T): T {
+    return guarded(this.path, doing, f);
+  }
+
+  /** Closes the store and gives its folder back. */
   close(): void {
-    this.db.close();
+    try {
+      this.db.close();
+    } finally {
+      this.lock?.release();
+    }
   }
 
   meta(key: string): string | undefined {
-    return this.db.prepare('SELECT value FROM meta WHERE key = ?').pluck().get(key) as string | undefined;
+    return this.guard('reading its meta table', () => this.db.prepare('SELECT value FROM meta WHERE key = ?').pluck().get(key) as string | undefined);
   }
 
   /** Ties the store to one campaign (its hash); a store of another campaign is refused. */
@@ -147,76 +352,133 @@ export class RunStore {
       throw new InputError('bad-value', `run store "${this.path}" belongs to another campaign (hash ${have}, this file gives ${hash}); the campaign file changed since the run started: use a new --out folder`);
     }
     if (have === undefined) {
-      this.db.transaction(() => {
+      this.guard('recording its campaign', () => this.db.transaction(() => {
         this.db.prepare('INSERT INTO meta (key, value) VALUES (?, ?)').run('campaign_hash', hash);
         this.db.prepare('INSERT INTO meta (key, value) VALUES (?, ?)').run('campaign_title', title);
-      })();
+      })());
     }
   }
 
-  /** Re-queues jobs left `running` by a crashed or killed run; returns how many. */
+  /** Re-queues jobs left `running` by a crashed or killed run; returns how many. Writes only when there are some. */
   requeueStale(): number {
-    return this.db.prepare("UPDATE jobs SET state = 'queued', started_at = NULL WHERE state = 'running'").run().changes;
+    return this.guard('re-queueing jobs left running', () => {
+      if (this.db.prepare("SELECT count(*) FROM jobs WHERE state = 'running'").pluck().get() === 0) return 0;
+      return this.db.prepare("UPDATE jobs SET state = 'queued', started_at = NULL WHERE state = 'running'").run().changes;
+    });
+  }
+
+  /** running -> queued for one job: a run stopped by its environment gives the job back untouched. */
+  requeue(name: string): void {
+    this.guard(`re-queueing job "${name}"`, () => this.db.prepare("UPDATE jobs SET state = 'queued', started_at = NULL WHERE name = ? AND state = 'running'").run(name));
+  }
+
+  /** failed -> queued for the named jobs (their stored starts are kept); returns how many. */
+  retryFailed(names: readonly string[]): number {
+    return this.guard('re-queueing failed jobs', () => {
+      const failed = new Set(this.db.prepare("SELECT name FROM jobs WHERE state = 'failed'").pluck().all() as string[]);
+      const retry = names.filter((n) => failed.has(n));
+      if (retry.length === 0) return 0;
+      const put = this.db.prepare("UPDATE jobs SET state = 'queued', status = NULL, message = NULL, started_at = NULL, finished_at = NULL WHERE name = ? AND state = 'failed'");
+      this.db.transaction(() => { for (const n of retry) put.run(n); })();
+      return retry.length;
+    });
   }
 
   job(name: string): JobRecord | undefined {
-    return this.db.prepare('SELECT * FROM jobs WHERE name = ?').get(name) as JobRecord | undefined;
+    return this.guard('reading a job', () => this.db.prepare('SELECT * FROM jobs WHERE name = ?').get(name) as JobRecord | undefined);
   }
 
   jobs(): JobRecord[] {
-    return this.db.prepare('SELECT * FROM jobs ORDER BY idx').all() as JobRecord[];
+    return this.guard('reading its jobs', () => this.db.prepare('SELECT * FROM jobs ORDER BY idx').all() as JobRecord[]);
   }
 
-  /** Adds a job as queued unless it is there already (with the same hash). */
-  enqueue(job: { name: string; index: number; kind: string; hash: string; spec: unknown; options: unknown; seed: number }): JobRecord {
-    const have = this.job(job.name);
-    if (have) {
-      if (have.hash !== job.hash) throw new InputError('bad-value', `run store "${this.path}": job "${job.name}" was stored with spec hash ${have.hash}, the campaign now gives ${job.hash}; use a new --out folder`);
-      return have;
-    }
-    this.db.prepare(`INSERT INTO jobs (name, idx, kind, hash, state, spec_json, options_json, seed, tool_version, queued_at)
-      VALUES (?, ?, ?, ?, 'queued', ?, ?, ?, ?, ?)`)
-      .run(job.name, job.index, job.kind, job.hash, JSON.stringify(job.spec), JSON.stringify(job.options), job.seed, toolVersion(), now());
-    return this.job(job.name)!;
+  /**
+   * Adds the jobs missing from the store as queued, in one transaction; a job stored with
+   * another hash is refused. Writes only when some job is missing.
+   */
+  enqueue(jobs: readonly { name: string; index: number; kind: string; hash: string; spec: unknown; options: unknown; seed: number }[]): void {
+    this.guard('queueing the jobs', () => {
+      const get = this.db.prepare('SELECT hash FROM jobs WHERE name = ?').pluck();
+      const missing = jobs.filter((job) => {
+        const have = get.get(job.name) as string | undefined;
+        if (have !== undefined && have !== job.hash) throw new InputError('bad-value', `run store "${this.path}": job "${job.name}" was stored with spec hash ${have}, the campaign now gives ${job.hash}; use a new --out folder`);
+        return have === undefined;
+      });
+      if (missing.length === 0) return;
+      const put = this.db.prepare(`INSERT INTO jobs (name, idx, kind, hash, state, spec_json, options_json, seed, tool_version, queued_at)
+        VALUES (?, ?, ?, ?, 'queued', ?, ?, ?, ?, ?)`);
+      this.db.transaction(() => {
+        for (const job of missing) put.run(job.name, job.index, job.kind, job.hash, JSON.stringify(job.spec), JSON.stringify(job.options), job.seed, toolVersion(), now());
+      })();
+    });
   }
 
   /** queued -> running (counts the attempt). */
   markRunning(name: string): void {
-    const r = this.db.prepare("UPDATE jobs SET state = 'running', started_at = ?, attempts = attempts + 1 WHERE name = ? AND state = 'queued'").run(now(), name);
+    const r = this.guard(`starting job "${name}"`, () => this.db.prepare("UPDATE jobs SET state = 'running', started_at = ?, attempts = attempts + 1 WHERE name = ? AND state = 'queued'").run(now(), name));
     if (r.changes !== 1) throw new Error(`run store: job "${name}" is not queued`);
   }
 
   /** Start outcomes stored so far for a job, by start index. */
   outcomes(job: string): StartOutcome[] {
-    return (this.db.prepare('SELECT outcome_json FROM starts WHERE job = ? ORDER BY start').pluck().all(job) as string[]).map((s) => JSON.parse(s, reviveNonFinite) as StartOutcome);
+    return this.guard(`reading the starts of job "${job}"`, () =>
+      (this.db.prepare('SELECT outcome_json FROM starts WHERE job = ? ORDER BY start').pluck().all(job) as string[]).map((s) => JSON.parse(s, reviveNonFinite) as StartOutcome));
   }
 
   /** The checkpoint: one finished start, written once (a repeat of the same start is ignored). */
   saveOutcome(job: string, outcome: StartOutcome, seconds: number): void {
-    this.db.prepare('INSERT OR IGNORE INTO starts (job, start, loss, snapped_loss, evaluations, outcome_json, seconds, finished_at) VALUES (?, ?, ?, ?, ?, ?, ?, ?)')
-      .run(job, outcome.index, finiteOrNull(outcome.loss), finiteOrNull(outcome.snapped.loss), outcome.evaluations, JSON.stringify(outcome, keepNonFinite), seconds, now());
+    this.guard(`storing start ${outcome.index} of job "${job}"`, () => this.db.prepare('INSERT OR IGNORE INTO starts (job, start, loss, snapped_loss, evaluations, outcome_json, seconds, finished_at) VALUES (?, ?, ?, ?, ?, ?, ?, ?)')
+      .run(job, outcome.index, finiteOrNull(outcome.loss), finiteOrNull(outcome.snapped.loss), outcome.evaluations, JSON.stringify(outcome, keepNonFinite), seconds, now()));
   }
 
   /** running -> done with the ranked designs, in one transaction. */
   finishJob(name: string, result: DesignResult): void {
-    this.db.transaction(() => {
+    this.guard(`storing the designs of job "${name}"`, () => this.db.transaction(() => {
       const r = this.db.prepare("UPDATE jobs SET state = 'done', finished_at = ?, status = ?, message = ?, parameter_set = ?, evaluations = ?, failures = ? WHERE name = ? AND state = 'running'")
         .run(now(), result.status, result.message, result.designs[0]?.result.parameterSet ?? null, result.evaluations, result.failures, name);
       if (r.changes !== 1) throw new Error(`run store: job "${name}" is not running`);
       const put = this.db.prepare('INSERT INTO designs (job, rank, loss, satisfied, start, values_json, result_json) VALUES (?, ?, ?, ?, ?, ?, ?)');
       for (const d of result.designs) put.run(name, d.rank, d.loss, d.satisfied ? 1 : 0, d.start, JSON.stringify(d.values), JSON.stringify(d.result, keepNonFinite));
-    })();
+    })());
   }
 
   /** running -> failed with a one-line reason. */
   failJob(name: string, message: string): void {
-    this.db.prepare("UPDATE jobs SET state = 'failed', finished_at = ?, status = 'failed', message = ? WHERE name = ? AND state = 'running'").run(now(), message, name);
+    this.guard(`recording the failure of job "${name}"`, () => this.db.prepare("UPDATE jobs SET state = 'failed', finished_at = ?, status = 'failed', message = ? WHERE name = ? AND state = 'running'").run(now(), message, name));
   }
 
   designs(job?: string): DesignRecord[] {
-    return (job === undefined
+    return this.guard('reading its designs', () => (job === undefined
       ? this.db.prepare('SELECT d.* FROM designs d JOIN jobs j ON j.name = d.job ORDER BY j.idx, d.rank').all()
-      : this.db.prepare('SELECT * FROM designs WHERE job = ? ORDER BY rank').all(job)) as DesignRecord[];
+      : this.db.prepare('SELECT * FROM designs WHERE job = ? ORDER BY rank').all(job)) as DesignRecord[]);
+  }
+
+  /**
+   * Checks the whole store before its records are copied elsewhere: SQLite's integrity check
+   * (b-trees, pages, indexes), then that every stored JSON text parses. A damaged store is refused
+   * with a StoreError naming it (exit 2).
+   */
+  verify(): void {
+    const damaged = (why: string): never => {
+      throw new StoreError('damaged', `run store "${this.path}" is damaged: ${why}; ${ADVICE.damaged}`);
+    };
+    this.guard('checking its integrity', () => {
+      const problems = this.db.prepare('PRAGMA integrity_check(5)').pluck().all() as string[];
+      if (problems.length !== 1 || problems[0] !== 'ok') damaged(`SQLite integrity check: ${problems.join('; ')}`);
+      const columns: readonly [string, readonly string[], string][] = [
+        ['jobs', ['spec_json', 'options_json'], 'name'], ['starts', ['outcome_json'], "job || ' start ' || start"], ['designs', ['values_json', 'result_json'], "job || ' rank ' || rank"]];
+      for (const [table, fields, key] of columns) {
+        for (const row of this.db.prepare(`SELECT ${key} AS key, ${fields.join(', ')} FROM ${table}`).iterate() as IterableIterator<Record<string, unknown>>) {
+          for (const f of fields) {
+            try {
+              JSON.parse(String(row[f]));
+            } catch {
+              damaged(`${table}.${f} of ${String(row['key'])} is not valid JSON`);
+            }
+          }
+        }
+      }
+    });
   }
 
   /**
@@ -229,7 +491,7 @@ export class RunStore {
     if (theirs !== undefined) this.bindCampaign(theirs, other.meta('campaign_title') ?? '');
     let jobs = 0;
     let starts = 0;
-    this.db.transaction(() => {
+    this.guard(`merging "${other.path}" into it`, () => this.db.transaction(() => {
       for (const j of other.jobs()) {
         const mine = this.job(j.name);
         if (mine && mine.hash !== j.hash) throw new InputError('bad-value', `merge: job "${j.name}" has spec hash ${mine.hash} in "${this.path}" but ${j.hash} in "${other.path}"; these are runs of different campaigns`);
@@ -252,7 +514,7 @@ export class RunStore {
           starts += this.db.prepare(`INSERT OR IGNORE INTO starts (${cols.join(', ')}) VALUES (${cols.map(() => '?').join(', ')})`).run(...cols.map((c) => s[c])).changes;
         }
       }
-    })();
+    })());
     return { jobs, starts };
   }
 
@@ -261,11 +523,11 @@ export class RunStore {
    * a sharded-and-merged and an uninterrupted run of the same campaign.
    */
   snapshot(): { jobs: unknown[]; starts: unknown[]; designs: unknown[] } {
-    return {
+    return this.guard('reading its records', () => ({
       jobs: this.db.prepare('SELECT name, idx, kind, hash, state, seed, status, message, parameter_set, evaluations, failures FROM jobs ORDER BY idx').all(),
       starts: this.db.prepare('SELECT job, start, outcome_json FROM starts ORDER BY job, start').all(),
       designs: this.db.prepare('SELECT job, rank, loss, satisfied, start, values_json, result_json FROM designs ORDER BY job, rank').all(),
-    };
+    }));
   }
 }
 

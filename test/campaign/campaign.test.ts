@@ -80,6 +80,54 @@ describe('campaign expansion', () => {
   });
 });
 
+describe('the base spec file', () => {
+  const SECRET = 'TOPSECRET-7f3a9c';
+
+  it.each([
+    ['secret.txt', `the password is ${SECRET}\n`, /spec: expected the path of a spec file ending in \.yaml, \.yml, \.json, got "\.\.\/secret\.txt"/],
+    ['notes.yaml', `${SECRET} is the code\n`, /spec: ".*notes\.yaml" is not a spec \(a mapping with at least a "stack" list\)/],
+    ['list.json', `["${SECRET}"]\n`, /spec: ".*list\.json" is not a spec/],
+  ])('never echoes what a file that is not a spec holds: %s', (name, content, message) => {
+    const dir = tempDir('campaign-secret');
+    mkdirSync(join(dir, 'c'));
+    writeFileSync(join(dir, name), content);
+    writeFileSync(join(dir, 'c', 'c.yaml'), `spec: ../${name}\n`);
+    let thrown: unknown;
+    try {
+      loadCampaignFile(join(dir, 'c', 'c.yaml'));
+    } catch (e) {
+      thrown = e;
+    }
+    expect(thrown).toBeInstanceOf(Error);
+    expect((thrown as Error).message).toMatch(message);
+    expect((thrown as Error).message).not.toContain(SECRET);
+  });
+
+  it('a folder as the base spec is refused by extension, naming what was expected', () => {
+    const dir = tempDir('campaign-dotdot');
+    writeFileSync(join(dir, 'c.yaml'), 'spec: ../..\n');
+    expect(() => loadCampaignFile(join(dir, 'c.yaml'))).toThrow(/spec: expected the path of a spec file ending in \.yaml, \.yml, \.json, got "\.\.\/\.\."/);
+  });
+});
+
+describe('size limits', () => {
+  it('refuses a sweep of 10^8 jobs before expanding it, naming the limit', () => {
+    const t0 = performance.now();
+    expect(() => parse([...BASE, 'sweep:',
+      '  targets[0].wavelength: { from: 1000 nm, to: 1999 nm, step: 1 nm }',
+      '  targets[0].within: { from: 1 nm, to: 1000 nm, step: 1 nm }',
+      '  design.seed: { from: 1, to: 100, step: 1 }'])).toThrow(/sweep: the axes give 1000 × 1000 × 100 = 100000000 jobs, more than the limit of 100000 per campaign/);
+    expect(performance.now() - t0, 'refused at once, not after expanding').toBeLessThan(2000);
+  });
+
+  it('refuses a campaign file larger than 4 MiB without parsing it', () => {
+    const dir = tempDir('campaign-big');
+    const file = join(dir, 'big.yaml');
+    writeFileSync(file, `${BASE.join('\n')}\n${'# padding\n'.repeat(420_000)}`);
+    expect(() => loadCampaignFile(file)).toThrow(/campaign file ".*big\.yaml" is 4\.0 MiB, more than the limit of 4 MiB/);
+  });
+});
+
 describe('shards', () => {
   it('parses i/N and rejects anything else', () => {
     expect(parseShard('2/3')).toEqual({ index: 2, count: 3 });

@@ -1,4 +1,5 @@
-/** Shared pieces of the campaign tests: a tiny campaign (3 jobs × 4 starts) and its uninterrupted run. */
+/** Shared pieces of the campaign tests: a tiny campaign (3 jobs × 4 starts), its uninterrupted run, the CLI as a child process. */
+import { spawn, type SpawnOptions } from 'node:child_process';
 import { mkdtempSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
@@ -12,9 +13,12 @@ export const MAIN = join(ROOT, 'engine/cli/main.ts');
 
 export const tempDir = (tag: string): string => mkdtempSync(join(tmpdir(), `wellsmith-${tag}-`));
 
+/** The jobs of the tiny campaign, in order. */
+export const TINY_JOBS = ['wavelength=1480nm', 'wavelength=1550nm', 'wavelength=1600nm'];
+
 /** Writes the tiny campaign into `dir` and returns its path. */
-export function tinyCampaign(dir: string): string {
-  const file = join(dir, 'tiny.yaml');
+export function tinyCampaign(dir: string, name = 'tiny.yaml'): string {
+  const file = join(dir, name);
   writeFileSync(file, [
     'title: tiny test campaign',
     `spec: ${JSON.stringify(join(ROOT, 'runs/telecom-1550-inp.yaml'))}`,
@@ -29,7 +33,7 @@ export function tinyCampaign(dir: string): string {
 export type Snapshot = ReturnType<RunStore['snapshot']>;
 
 export function snapshotOf(dir: string): Snapshot {
-  const store = RunStore.open(dir, { create: false });
+  const store = RunStore.open(dir, { readonly: true });
   try { return store.snapshot(); } finally { store.close(); }
 }
 
@@ -43,4 +47,25 @@ export async function referenceRun(file: string, out: string): Promise<Snapshot>
   } finally {
     store.close();
   }
+}
+
+export interface Ended { readonly code: number | null; readonly signal: NodeJS.Signals | null; readonly stdout: string; readonly stderr: string }
+
+/**
+ * Runs the wellsmith CLI from source as a child process. `shell` is bash text run first (e.g.
+ * "ulimit -f 400"); `onSpawn` gets the child (to stop or kill it).
+ */
+export function spawnCli(args: readonly string[], options: { shell?: string; spawn?: SpawnOptions; onSpawn?: (child: ReturnType<typeof spawn>) => void } = {}): Promise<Ended> {
+  const argv = [process.execPath, '--import', 'tsx', MAIN, ...args];
+  const [cmd, ...rest] = options.shell === undefined ? argv : ['bash', '-c', `${options.shell}; exec "$0" "$@"`, ...argv];
+  return new Promise((resolve, reject) => {
+    const child = spawn(cmd!, rest, { cwd: ROOT, ...options.spawn, stdio: ['ignore', 'pipe', 'pipe'] });
+    let stdout = '';
+    let stderr = '';
+    child.stdout!.on('data', (d: Buffer) => { stdout += d.toString(); });
+    child.stderr!.on('data', (d: Buffer) => { stderr += d.toString(); });
+    child.on('error', reject);
+    child.on('close', (code, signal) => resolve({ code, signal, stdout, stderr }));
+    options.onSpawn?.(child);
+  });
 }

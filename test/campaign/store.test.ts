@@ -60,7 +60,7 @@ describe('job states', () => {
     const dir = tempDir('store-states');
     mkdirSync(dir, { recursive: true });
     const s = RunStore.open(dir);
-    s.enqueue(job);
+    s.enqueue([job]);
     s.markRunning('a');
     s.close();
     const t = RunStore.open(dir);
@@ -72,7 +72,7 @@ describe('job states', () => {
     t.failJob('a', 'late failure');
     expect(t.requeueStale()).toBe(0);
     expect(t.job('a')).toMatchObject({ state: 'done', status: 'ok', attempts: 2 });
-    expect(() => t.enqueue({ ...job, hash: 'h2' })).toThrow(/spec hash h1.*h2.*new --out folder/);
+    expect(() => t.enqueue([{ ...job, hash: 'h2' }])).toThrow(/spec hash h1.*h2.*new --out folder/);
     t.close();
   });
 });
