@@ -105,6 +105,19 @@ export const specSchema = z
     } else if (spec.wire !== undefined && spec.stack.length > 0) {
       ctx.addIssue({ code: 'custom', path: ['wire'], input: undefined, message: 'a spec describes either a layer stack or a wire, not both; remove "stack:" or "wire:"' });
     }
+    // Settings the wire solver does not apply are refused rather than silently ignored.
+    if (spec.wire !== undefined) {
+      const stackOnly: readonly [readonly (string | number)[], string][] = [
+        [['field'], 'a wire is solved without an applied field; remove "field:" (fields are modelled for layer stacks)'],
+        [['carriers'], 'injected carriers are computed for layer stacks only; remove "carriers:"'],
+        [['solver', 'slice'], 'slices apply to graded layers and fields of layer stacks; a wire\'s grid is "wire.grid"'],
+        [['solver', 'max_states'], 'a wire\'s number of subbands is "wire.states"; remove solver.max_states'],
+      ];
+      for (const [path, message] of stackOnly) {
+        const value = path.length === 1 ? (spec as Record<string, unknown>)[path[0] as string] : (spec.solver as Record<string, unknown> | undefined)?.[path[1] as string];
+        if (value !== undefined) ctx.addIssue({ code: 'custom', path: [...path], input: value, message });
+      }
+    }
   });
 
 export type Spec = z.infer<typeof specSchema>;
