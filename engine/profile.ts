@@ -40,9 +40,9 @@ export interface BandProfile {
   /** +1 for electrons (energy = particle energy), −1 for holes (absolute energy = −particle energy). */
   readonly sign: 1 | -1;
   /**
-   * Particle energy above which a state can leave the structure. Without a field it equals the
-   * lower outer potential; with a field the outer regions are raised to the uphill edge (so that
-   * states the field lets escape are still found) and this keeps the true, downhill edge.
+   * Particle energy above which a state can leave the structure: the lower of the two outer
+   * potentials (with a field, the downhill contact's edge). Bound states lie below it; above it the
+   * states of the structure are resonances (engine/resonance.ts).
    */
   readonly openEdge: number;
 }
@@ -83,9 +83,9 @@ export const isPiecewiseConstant = (s: Structure): boolean =>
  * The profile of one band: one slice per uniform layer; graded layers and an applied field are
  * cut into slices of at most `maxSlice_nm` with midpoint values (second order in the slice width,
  * which the solver's Richardson step removes). The field tilts every band by e·F·(z − z_c) about
- * the stack's centre z_c; beyond the stack the material is flat (field-free contacts). With a
- * field both outer regions sit at the uphill edge value, so a state above the downhill edge is
- * found as a box state and reported as quasi-bound instead of being lost in the continuum.
+ * the stack's centre z_c; beyond the stack the material is flat (field-free contacts), each outer
+ * region at the band edge of its end of the stack. Units: field kV/cm (1 kV/cm = 1e-4 eV/nm for
+ * an electron), widths nm, energies eV.
  */
 export function buildBandProfile(s: Structure, band: BandName, options: { readonly maxSlice_nm: number; readonly nonparabolic: boolean }): BandProfile {
   const slope = s.field_kV_per_cm * KV_PER_CM_TO_EV_PER_NM;
@@ -107,8 +107,5 @@ export function buildBandProfile(s: Structure, band: BandName, options: { readon
   const last = s.layers[s.layers.length - 1]!;
   const left = bandPoint(band, bandsAt(first, 0), slope * (0 - zc), options.nonparabolic);
   const right = bandPoint(band, bandsAt(last, 1), slope * (s.total_nm - zc), options.nonparabolic);
-  const openEdge = Math.min(left.V, right.V);
-  if (slope === 0) return { band, slices, left, right, sign: band === 'electron' ? 1 : -1, openEdge };
-  const top = Math.max(left.V, right.V);
-  return { band, slices, left: { ...left, V: top }, right: { ...right, V: top }, sign: band === 'electron' ? 1 : -1, openEdge };
+  return { band, slices, left, right, sign: band === 'electron' ? 1 : -1, openEdge: Math.min(left.V, right.V) };
 }

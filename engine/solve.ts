@@ -5,13 +5,15 @@
  */
 import { HC_EV_NM, wavenumberPerCm } from './constants.js';
 import { buildBandProfile, isPiecewiseConstant, type BandName, type BandProfile } from './profile.js';
-import { solveBand, solveBandExtrapolated, wavefunction, type BandSolution } from './solver1d.js';
+import { solveBand, solveBandExtrapolated, twoBandFactor, wavefunction } from './solver1d.js';
+import { followResonance, resonanceWavefunction, resonanceWidth, siegertPole, type Pole } from './resonance.js';
 import { buildStructure, nominalVariables, PARAMETER_SET, type Structure } from './structure.js';
 import type { Spec } from './spec/schema.js';
 import { parseLength, parseSheetDensity } from './spec/units.js';
 import { quasiFermiLevels } from './observables/carriers.js';
 import { InputError } from './errors.js';
-import { dipoleNm, oscillatorStrength, overlap2, weightedGrid } from './observables/matrix-elements.js';
+import { dipoleNm, intersubbandStates, oscillatorStrength, overlap2, weightedGrid } from './observables/matrix-elements.js';
+import { permittivityOnGrid, subbandExciton } from './observables/exciton.js';
 import { stepHeight2d } from './observables/dos.js';
 
 export const BANDS: readonly BandName[] = ['electron', 'heavy_hole', 'light_hole'];
@@ -37,8 +39,14 @@ export interface StateResult {
   readonly energy_eV: number;
   /** Energy above (electrons) or below (holes) the band's extremum in the structure (meV). */
   readonly confinement_meV: number;
-  /** False for a quasi-bound state: one a field lets leave over or through the downhill barrier. */
+  /**
+   * False for a quasi-bound state: a resonance of the structure that a field lets leave over or
+   * through the downhill barrier (engine/resonance.ts); its energy is the real part of the pole.
+   */
   readonly bound: boolean;
+  /** Width Γ of a quasi-bound state (meV, full width at half maximum; lifetime ħ/Γ); 0 for a bound state. */
+  readonly width_meV: number;
+  /** Zeros of ψ of the state (for a resonance, of the zero-field state it continues). */
   readonly nodes: number;
   /** Probability-weighted in-plane mass (m0): (∫|ψ|²/m∥ dz)⁻¹. */
   readonly mass_inplane: number;
@@ -59,12 +67,28 @@ export interface TransitionResult {
   readonly energy_eV: number;
   readonly wavelength_nm: number;
   readonly wavenumber_per_cm: number;
-  /** |⟨ψ_i|ψ_j⟩|² (interband envelope overlap; 0 for intersubband pairs of one band by orthogonality). */
+  /**
+   * |⟨ψ_i|ψ_j⟩|²: interband, the envelope overlap; intersubband, in the inner product of the
+   * energy-dependent mass (intersubbandStates), 0 by orthogonality.
+   */
   readonly overlap2: number;
-  /** ⟨ψ_i|z|ψ_j⟩ (nm), intersubband only. */
+  /**
+   * z_ij (nm), intersubband only: the origin-free velocity form with the energy-dependent mass
+   * (intersubbandStates); for a pair with a resonance ∫ψ_i (z − z_c) ψ_j dz on the stack, z_c its centre.
+   */
   readonly dipole_nm?: number;
-  /** Oscillator strength (dimensionless), intersubband only. */
+  /**
+   * Oscillator strength (2 m_i/ħ²)(E_j − E_i) z_ij², m_i the initial state's mass_inplane
+   * (1/⟨i|1/m(z, E_i)|i⟩), intersubband only: Σ_j f_ij = 1 for a parabolic band (Thomas–Reiche–Kuhn),
+   * below 1 over the conduction states with non-parabolicity.
+   */
   readonly oscillator_strength?: number;
+  /**
+   * Interband only: exciton binding estimate (eV) of this electron–hole pair (subbandExciton:
+   * fractional-dimension model with the envelopes' spread); NaN without wavefunctions or when a
+   * layer's permittivity is unknown. The exciton line is energy_eV minus it.
+   */
+  readonly exciton_binding_eV?: number;
 }
 
 export interface DosStep {
@@ -120,24 +144,105 @@ export function settingsOf(spec: Spec): SolverSettings {
   };
 }
 
-function solveOneBand(structure: Structure, band: BandName, settings: SolverSettings): { profile: BandProfile; solution: BandSolution } {
-  const build = (h: number): BandProfile => buildBandProfile(structure, band, { maxSlice_nm: h, nonparabolic: settings.nonparabolic });
-  if (settings.maxStates === 0) {
-    const profile = build(settings.slice_nm);
-    return { profile, solution: { band, sign: profile.sign, states: [], barrier: Math.min(profile.left.V, profile.right.V), evaluations: 0 } };
-  }
-  const options = Number.isFinite(settings.maxStates) ? { maxStates: settings.maxStates } : {};
+/** One state of a band as solved: particle energy (eV), width (eV), and its pole when it is a resonance. */
+interface SolvedState {
+  readonly energy: number;
+  readonly width: number;
+  readonly nodes: number;
+  readonly pole?: Pole;
+}
+
+interface SolvedBand {
+  /** The profile wavefunctions are sampled on (the finer one where energies are extrapolated). */
+  readonly profile: BandProfile;
+  readonly states: readonly SolvedState[];
+  readonly evaluations: number;
+}
+
+/**
+ * Spacing (eV) that sets how far a state may move in one continuation step: its distance to the
+ * nearer zero-field neighbour, or, for a lone state, its depth below the zero-field continuum.
+ */
+function spacingOf(zero: readonly number[], k: number, barrier: number): number {
+  const gaps = [k > 0 ? zero[k]! - zero[k - 1]! : Infinity, k + 1 < zero.length ? zero[k + 1]! - zero[k]! : Infinity];
+  const gap = Math.min(...gaps);
+  return Number.isFinite(gap) ? gap : barrier - zero[k]!;
+}
+
+const uniformGrid = (length: number, step: number): Float64Array => {
+  const n = Math.max(2, Math.round(length / step) + 1);
+  const z = new Float64Array(n);
+  for (let i = 0; i < n; i++) z[i] = (length * i) / (n - 1);
+  return z;
+};
+
+/**
+ * Reach (eV) of the search for a resonance on the finer slicing from its pole on the coarser: going
+ * from 0.2 to 0.1 nm slices moves a pole by 1e-8 to 1e-5 eV, while broad resonances of strong fields
+ * can have neighbouring poles a few meV away.
+ */
+const REFINE_REACH = 1e-3;
+
+/** Spacing (nm) of the grid on which a zero-field state's peak is located. */
+const ANCHOR_GRID_NM = 0.1;
+
+/** Position of the largest |ψ| on the grid. */
+function peakOf(psi: Float64Array, z: Float64Array): number {
+  let best = 0;
+  for (let i = 1; i < psi.length; i++) if (Math.abs(psi[i]!) > Math.abs(psi[best]!)) best = i;
+  return z[best]!;
+}
+
+/**
+ * The states of one band: bound states (below the open edge) from the exact real solver; under a
+ * field, above them the resonances that continue the remaining zero-field bound states, in order
+ * (a state the continuation loses ends the list, so labels keep their zero-field order). Energies
+ * of a field are Richardson-extrapolated in the slice width; widths come from the finer profile
+ * (their slicing error is relative, below 1e-4 at the default 0.2 nm).
+ */
+function solveOneBand(structure: Structure, band: BandName, settings: SolverSettings, ask: number): SolvedBand {
+  const build = (h: number, s: Structure = structure): BandProfile => buildBandProfile(s, band, { maxSlice_nm: h, nonparabolic: settings.nonparabolic });
+  if (ask === 0) return { profile: build(settings.slice_nm), states: [], evaluations: 0 };
+  const options = Number.isFinite(ask) ? { maxStates: ask } : {};
+  const asStates = (energies: readonly { energy: number; nodes: number }[]): SolvedState[] => energies.map((e) => ({ energy: e.energy, width: 0, nodes: e.nodes }));
   if (isPiecewiseConstant(structure)) {
     const profile = build(settings.slice_nm);
-    return { profile, solution: solveBand(profile, options) };
+    const solution = solveBand(profile, options);
+    return { profile, states: asStates(solution.states), evaluations: solution.evaluations };
   }
   // Wavefunctions come from the finer profile; energies from the extrapolation.
-  return { profile: build(settings.slice_nm / 2), solution: solveBandExtrapolated(build, settings.slice_nm, options) };
+  const h = settings.slice_nm;
+  const fine = build(h / 2);
+  const bound = solveBandExtrapolated(build, h, options);
+  const states = asStates(bound.states);
+  let evaluations = bound.evaluations;
+  const F = structure.field_kV_per_cm;
+  if (F === 0 || states.length >= ask) return { profile: fine, states, evaluations };
+  const zeroProfile = build(h, { ...structure, field_kV_per_cm: 0 });
+  const zeroSolution = solveBand(zeroProfile, Number.isFinite(ask) ? { maxStates: ask + 1 } : {});
+  evaluations += zeroSolution.evaluations;
+  const zero = zeroSolution.states.map((x) => x.energy);
+  const atFraction = (lambda: number): BandProfile => build(h, { ...structure, field_kV_per_cm: lambda * F });
+  const grid = uniformGrid(structure.total_nm, ANCHOR_GRID_NM);
+  for (let k = states.length; k < Math.min(ask, zero.length); k++) {
+    const seed = { energy_eV: zero[k]!, scale_eV: spacingOf(zero, k, zeroSolution.barrier), anchor_nm: peakOf(wavefunction(zeroProfile, zero[k]!, grid), grid) };
+    const coarse = followResonance(atFraction, seed);
+    evaluations += coarse.evaluations;
+    const c = coarse.pole;
+    if (!c || !(c.openLeft || c.openRight)) break;
+    // The finer slicing moves a pole by O(h²), far less than REFINE_REACH; a farther pole is another one.
+    const refined = siegertPole(fine, c.energy, c.imaginary, seed.anchor_nm, Math.min(REFINE_REACH, seed.scale_eV / 4));
+    evaluations += refined.evaluations;
+    const f = refined.pole;
+    if (!f) break;
+    states.push({ energy: f.energy + (f.energy - c.energy) / 3, width: resonanceWidth(fine, f), nodes: k, pole: f });
+  }
+  return { profile: fine, states, evaluations };
 }
 
 /**
  * Probability-weighted in-plane mass (∫|ψ|²/m∥ dz)⁻¹ at the state's energy: with two-band
- * non-parabolicity each slice's mass is m∥(1 + α(E − V)), as along z.
+ * non-parabolicity each slice's mass is m∥ · twoBandFactor(α, E − V), as along z.
  */
 function inPlaneMass(profile: BandProfile, z: Float64Array, psi: Float64Array, energy: number): number {
   let acc = 0;
@@ -151,48 +256,19 @@ function inPlaneMass(profile: BandProfile, z: Float64Array, psi: Float64Array, e
     const last = k === profile.slices.length - 1;
     let sum = 0;
     for (; i < z.length && (last || z[i]! <= end); i++) sum += psi[i]! * psi[i]!;
-    acc += sum / (slice.massInPlane * (1 + slice.alpha * (energy - slice.V)));
+    acc += sum / (slice.massInPlane * twoBandFactor(slice.alpha, energy - slice.V));
     norm += sum;
   }
   return norm > 0 ? norm / acc : profile.slices[0]!.massInPlane;
 }
 
 /**
- * Fraction of |ψ|² in the downhill outer layer (the first or the last layer, whichever the field
- * pulls lower). Above the open edge a state mostly there is a box state of the contact, not a
- * state of the structure.
- */
-function contactShare(structure: Structure, profile: BandProfile, z: Float64Array, psi: Float64Array): number {
-  const leftDownhill = profile.slices[0]!.V < profile.slices[profile.slices.length - 1]!.V;
-  const a = structure.layers[0]!.thickness_nm;
-  const b = structure.total_nm - structure.layers[structure.layers.length - 1]!.thickness_nm;
-  let inside = 0;
-  let all = 0;
-  for (let i = 0; i < z.length; i++) {
-    const p = psi[i]! * psi[i]!;
-    all += p;
-    if (leftDownhill ? z[i]! < a : z[i]! > b) inside += p;
-  }
-  return all > 0 ? inside / all : 0;
-}
-
-/** Spacing (nm) of the grid that sorts states above the open edge when no wavefunctions are sampled. */
-const SORT_GRID_NM = 0.25;
-/** Extra states asked for under a field, so that contact box states do not push real ones out of a limited count. */
-const FIELD_STATE_MARGIN = 3;
-
-const uniformGrid = (length: number, step: number): Float64Array => {
-  const n = Math.max(2, Math.round(length / step) + 1);
-  const z = new Float64Array(n);
-  for (let i = 0; i < n; i++) z[i] = (length * i) / (n - 1);
-  return z;
-};
-
-/**
- * Solves a resolved structure: every bound state of the three bands and their observables.
+ * Solves a resolved structure: every bound state of the three bands and their observables; under a
+ * field also the resonances that continue the zero-field bound states (`bound: false`, with their
+ * width), never states of the contacts.
  * With `wavefunctions: false` (the inner loop of a search whose targets need only energies) no
- * wavefunction is sampled, so in-plane masses, overlaps, dipoles and oscillator strengths are NaN
- * and the structure's quasi-bound filtering under a field uses energies only.
+ * wavefunction is sampled, so in-plane masses, overlaps, dipoles and oscillator strengths are NaN;
+ * energies and widths are the same either way, so a search scores the states solve reports.
  */
 export interface SolveOptions {
   /** Sample wavefunctions (needed for overlaps, dipoles, in-plane masses); default true. */
@@ -204,40 +280,32 @@ export interface SolveOptions {
 export function solveStructure(structure: Structure, settings: SolverSettings = DEFAULT_SETTINGS, options: SolveOptions = {}): SolveResult {
   const sample = options.wavefunctions ?? true;
   const z = sample ? uniformGrid(structure.total_nm, settings.grid_nm) : new Float64Array(0);
-  const field = structure.field_kV_per_cm !== 0;
-  let sortGrid: Float64Array | undefined;
 
   const bands = {} as Record<BandName, BandResult>;
   const psi = {} as Record<BandName, Float64Array[]>;
   const dosBands = {} as Record<BandName, DosStep[]>;
+  let electronBand: ReturnType<typeof solveOneBand> | undefined;
   for (const band of BANDS) {
     const wanted = options.states?.[band];
-    const ask = wanted === undefined ? settings.maxStates : Math.min(settings.maxStates, wanted === 0 || !field ? wanted : wanted + FIELD_STATE_MARGIN);
-    const { profile, solution } = solveOneBand(structure, band, { ...settings, maxStates: ask });
+    const ask = wanted === undefined ? settings.maxStates : Math.min(settings.maxStates, wanted);
+    const solved = solveOneBand(structure, band, settings, ask);
+    if (band === 'electron') electronBand = solved;
+    const { profile } = solved;
     const sign = profile.sign;
     let vmin = Infinity;
     for (const s of profile.slices) vmin = Math.min(vmin, s.V);
-    // Under a field the raised outer regions also hold box states of the downhill contact layer:
-    // continuum there, not states of the structure, so they are not reported. The same rule holds
-    // whether or not wavefunctions are sampled, so a search scores the states solve reports.
-    const kept = solution.states.flatMap((s) => {
-      const wave = sample ? wavefunction(profile, s.energy, z) : z;
-      if (s.energy < profile.openEdge) return [{ s, psi: wave }];
-      const grid = sample ? z : (sortGrid ??= uniformGrid(structure.total_nm, SORT_GRID_NM));
-      const w = sample ? wave : wavefunction(profile, s.energy, grid);
-      return contactShare(structure, profile, grid, w) < 0.5 ? [{ s, psi: wave }] : [];
-    }).slice(0, wanted ?? Infinity);
-    const waves = kept.map((k) => k.psi);
-    const states = kept.map(({ s, psi }, k): StateResult => ({
+    const waves = sample ? solved.states.map((s) => (s.pole ? resonanceWavefunction(profile, s.pole, z) : wavefunction(profile, s.energy, z))) : [];
+    const states = solved.states.map((s, k): StateResult => ({
       label: `${PREFIX[band]}${k + 1}`,
       index: k + 1,
       energy_eV: sign * s.energy,
       confinement_meV: (s.energy - vmin) * 1000,
-      bound: s.energy < profile.openEdge,
+      bound: s.pole === undefined,
+      width_meV: s.width * 1000,
       nodes: s.nodes,
-      mass_inplane: sample ? inPlaneMass(profile, z, psi, s.energy) : NaN,
+      mass_inplane: sample ? inPlaneMass(profile, z, waves[k]!, s.energy) : NaN,
     }));
-    bands[band] = { states, edge_eV: sign * vmin, barrier_eV: sign * profile.openEdge, evaluations: solution.evaluations };
+    bands[band] = { states, edge_eV: sign * vmin, barrier_eV: sign * profile.openEdge, evaluations: solved.evaluations };
     psi[band] = waves;
     dosBands[band] = states.map((s) => ({ label: s.label, edge_eV: s.energy_eV, mass_inplane: s.mass_inplane, step_per_cm2_per_eV: sample ? stepHeight2d(s.mass_inplane) : NaN }));
   }
@@ -248,20 +316,35 @@ export function solveStructure(structure: Structure, settings: SolverSettings = 
     energy_eV: dE, wavelength_nm: HC_EV_NM / dE, wavenumber_per_cm: wavenumberPerCm(dE),
   });
   const electrons = bands.electron.states;
+  const permittivity = grid ? permittivityOnGrid(structure.layers, z) : undefined;
+  const knownPermittivity = permittivity !== undefined && permittivity.every(Number.isFinite);
+  const exciton = (i: number, hole: BandName, j: number): number => (grid && knownPermittivity
+    ? subbandExciton({ z, w: grid.w, psiElectron: psi.electron[i]!, psiHole: psi[hole][j]!, massElectron: electrons[i]!.mass_inplane, massHole: bands[hole].states[j]!.mass_inplane, permittivity: permittivity! }).binding_eV
+    : NaN);
   for (const hole of ['heavy_hole', 'light_hole'] as const) {
     for (const [i, e] of electrons.entries()) {
       for (const [j, h] of bands[hole].states.entries()) {
-        transitions.push({ label: `${e.label}-${h.label}`, kind: 'interband', ...photon(e.energy_eV - h.energy_eV), overlap2: grid ? overlap2(psi.electron[i]!, psi[hole][j]!, grid) : NaN });
+        transitions.push({
+          label: `${e.label}-${h.label}`, kind: 'interband', ...photon(e.energy_eV - h.energy_eV),
+          overlap2: grid ? overlap2(psi.electron[i]!, psi[hole][j]!, grid) : NaN, exciton_binding_eV: exciton(i, hole, j),
+        });
       }
     }
   }
+  // Bound electron states (listed before any resonance) are orthogonal in the inner product of the
+  // energy-dependent mass (intersubbandStates); a resonance has no finite norm there, so a pair with
+  // one keeps the single-band integrals on the stack grid, about the stack's centre.
+  const bound = electrons.filter((s) => s.bound).length;
+  const twoBand = sample && bound > 1 ? intersubbandStates(electronBand!.profile, electronBand!.states.slice(0, bound).map((s) => s.energy)) : undefined;
+  const centred = grid ? { z: z.map((x) => x - structure.total_nm / 2), w: grid.w } : undefined;
   for (let i = 0; i < electrons.length; i++) {
     for (let j = i + 1; j < electrons.length; j++) {
       const dE = electrons[j]!.energy_eV - electrons[i]!.energy_eV;
-      const d = grid ? dipoleNm(psi.electron[i]!, psi.electron[j]!, grid) : NaN;
+      const both = twoBand !== undefined && j < bound;
+      const d = both ? twoBand.dipole(i, j) : centred ? dipoleNm(psi.electron[i]!, psi.electron[j]!, centred) : NaN;
       transitions.push({
         label: `${electrons[i]!.label}-${electrons[j]!.label}`, kind: 'intersubband', ...photon(dE),
-        overlap2: grid ? overlap2(psi.electron[i]!, psi.electron[j]!, grid) : NaN, dipole_nm: d,
+        overlap2: both ? twoBand.overlap(i, j) ** 2 : grid ? overlap2(psi.electron[i]!, psi.electron[j]!, grid) : NaN, dipole_nm: d,
         oscillator_strength: sample ? oscillatorStrength(dE, d, electrons[i]!.mass_inplane) : NaN,
       });
     }

@@ -5,9 +5,10 @@
  * Model: single-band envelope function with position-dependent mass and BenDaniel–Duke continuity
  * (ψ and ψ′/m continuous; D. J. BenDaniel and C. B. Duke, Phys. Rev. 152, 683 (1966)):
  *   −(ħ²/2m0) d/dz (1/m(z) dψ/dz) + V(z) ψ = E ψ,
- * with the two-band non-parabolic mass m(E) = mass · (1 + alpha (E − V)) in every slice and in the
- * two outer regions. In a slice of constant V and m the solution is analytic, so carrying
- * (u, p) = (ψ, ψ′/m) across slices is exact. With s = m (E − V) / (ħ²/2m0) (nm⁻²):
+ * with the two-band non-parabolic mass m(E) = mass · max(1 + alpha (E − V), 0.1) in every slice and
+ * in the two outer regions (see twoBandFactor for the floor). In a slice of constant V and m the
+ * solution is analytic, so carrying (u, p) = (ψ, ψ′/m) across slices is exact. With
+ * s = m (E − V) / (ħ²/2m0) (nm⁻²):
  *   u(x) = u0 c(x) + m p0 S(x),   p(x) = p0 c(x) − (s/m) u0 S(x),
  *   c = cos √s x, S = sin(√s x)/√s for s > 0;  c = cosh √−s x, S = sinh(√−s x)/√−s for s < 0.
  *
@@ -22,9 +23,10 @@
  * Each eigenvalue is isolated by bisection on N(E) and refined by Brent's method (R. P. Brent,
  * Algorithms for Minimization without Derivatives (1973), ch. 4) on the continuous, increasing
  * mismatch θ(z_R) − θ_R − nπ. θ′ grows with E wherever m(E) and E − V both do, which holds for
- * alpha ≥ 0 (Sturm comparison theorem); the start angle rises and θ_R falls with E as well. So
- * θ(z_R) − θ_R increases strictly with E and no state is missed or counted twice. A negative alpha
- * loses that guarantee. Brent refines on the same mismatch taken at an interior boundary (the left
+ * alpha ≥ 0 with the floored two-band mass (positive and non-decreasing in E; Sturm comparison
+ * theorem); the start angle rises and θ_R falls with E as well. So θ(z_R) − θ_R increases strictly
+ * with E and no state is missed or counted twice. A negative alpha would lose that guarantee and is
+ * refused as input. Brent refines on the same mismatch taken at an interior boundary (the left
  * solution carried to it, the right one carried back), which has the same roots but stays smooth
  * where the state lives: at the right edge of a stack clad in thick barriers the mismatch is a step
  * too sharp to interpolate, and Brent would fall back to bisection (see sweepMatched).
@@ -96,8 +98,28 @@ function uniformStep(z: Float64Array): number | undefined {
   return h;
 }
 
+/** The two-band factor's floor (see twoBandFactor). */
+export const MASS_FLOOR = 0.1;
+
+/**
+ * Factor of the two-band mass, m(E) = mass · twoBandFactor(alpha, E − V), dimensionless.
+ *
+ * The two-band (Kane) form 1 + alpha (E − V), alpha = 1/Eg (D. F. Nelson, R. C. Miller and
+ * D. A. Kleinman, Phys. Rev. B 35, 7770 (1987)), floored at 0.1. Why: the form is meaningful only
+ * above E = V − 1/alpha (the valence-band edge of the two-band model), where it reaches zero; a field
+ * across thick claddings puts a state's energy far below a barrier's edge, often more than a gap
+ * below it, where the mass would be non-positive. Kept above the floor, the mass stays positive and
+ * non-decreasing in E, which is what the oscillation count needs (see the module comment), and the
+ * decay constant κ² = m(E)(V − E)/(ħ²/2m0) grows again with depth below it (a single-band envelope
+ * model has no valence band to tunnel into). The floor sits at 90 % of the gap below the edge: the
+ * deepest barriers of unbiased wells stay above it (InAs/AlSb with this parameter set reaches 0.22),
+ * so their levels are those of the plain two-band form.
+ * Example: twoBandFactor(0.7, 0.1) = 1.07; twoBandFactor(0.7, −1.5) = 0.1 (not −0.05).
+ */
+export const twoBandFactor = (alpha: number, dV: number): number => Math.max(1 + alpha * dV, MASS_FLOOR);
+
 /** The profile unpacked into flat arrays once per call, so the sweeps read no objects. */
-interface Unpacked {
+export interface Unpacked {
   readonly n: number;
   readonly width: Float64Array;
   readonly V: Float64Array;
@@ -121,7 +143,8 @@ const isFiniteNumber = (x: unknown): x is number => typeof x === 'number' && Num
 
 const bad = (field: string, what: string, got: unknown, fix: string): InputError => badValue(field, what, got, fix, field);
 
-function unpack(profile: BandProfile): Unpacked {
+/** The profile checked (every field finite, widths and masses positive, alpha ≥ 0) and unpacked; throws InputError naming the field. */
+export function unpack(profile: BandProfile): Unpacked {
   const slices = profile.slices;
   const n = slices.length;
   const width = new Float64Array(n);
@@ -132,7 +155,7 @@ function unpack(profile: BandProfile): Unpacked {
   const checkRegion = (where: string, v: number, m: number, a: number): void => {
     if (!isFiniteNumber(v)) throw bad(`${where}.V`, 'must be a finite potential in eV', v, 'fix the band profile');
     if (!isFiniteNumber(m) || m <= 0) throw bad(`${where}.mass`, 'must be a positive mass in m0', m, 'fix the band profile');
-    if (!isFiniteNumber(a)) throw bad(`${where}.alpha`, 'must be a finite non-parabolicity in 1/eV', a, 'use 0 for a parabolic band');
+    if (!isFiniteNumber(a) || a < 0) throw bad(`${where}.alpha`, 'must be a finite non-parabolicity ≥ 0 in 1/eV (two-band alpha = 1/Eg)', a, 'use 0 for a parabolic band');
   };
   const { left, right } = profile;
   checkRegion('profile.left', left.V, left.mass, left.alpha);
@@ -153,17 +176,6 @@ function unpack(profile: BandProfile): Unpacked {
     if (s.V < Vmin) Vmin = s.V;
   }
   const barrier = Math.min(left.V, right.V);
-  // The two-band mass must stay positive over the whole search window [Vmin, barrier].
-  const checkMass = (where: string, v: number, a: number): void => {
-    const worst = Math.min(1 + a * (Vmin - v), 1 + a * (barrier - v));
-    if (!(worst > 0)) {
-      throw bad(`${where}.alpha`, `makes the mass m(E) = mass (1 + alpha (E − V)) non-positive between ${Vmin} and ${barrier} eV`, a,
-        'reduce |alpha| or the band offsets');
-    }
-  };
-  checkMass('profile.left', left.V, left.alpha);
-  checkMass('profile.right', right.V, right.alpha);
-  for (let i = 0; i < n; i++) checkMass(`profile.slices[${i}]`, V[i]!, alpha[i]!);
   return {
     n, width, V, mass, alpha, edge,
     VL: left.V, mL: left.mass, aL: left.alpha,
@@ -186,7 +198,7 @@ interface Carry {
 function carry(d: Unpacked, E: number, i: number, dir: 1 | -1, st: Carry): void {
   const L = d.width[i]!;
   const dV = E - d.V[i]!;
-  const m = d.mass[i]! * (1 + d.alpha[i]! * dV);
+  const m = d.mass[i]! * twoBandFactor(d.alpha[i]!, dV);
   const s = (m * dV) / C;
   const { u, p } = st;
   let u1: number;
@@ -243,7 +255,7 @@ const reducedAngle = (u: number, p: number): number => (u < 0 || (u === 0 && p <
 
 /** The solution decaying into the left outer region, at its edge (E ≤ its potential). */
 function startLeft(d: Unpacked, E: number, st: Carry): void {
-  const mLe = d.mL * (1 + d.aL * (E - d.VL));
+  const mLe = d.mL * twoBandFactor(d.aL, E - d.VL);
   st.u = 1;
   st.p = Math.sqrt(Math.max(0, mLe * (d.VL - E) / C)) / mLe;
   st.zeros = 0;
@@ -261,7 +273,7 @@ function sweep(d: Unpacked, E: number, out: Sweep, st: Carry): void {
     u = -u;
     p = -p;
   }
-  const mRe = d.mR * (1 + d.aR * (E - d.VR));
+  const mRe = d.mR * twoBandFactor(d.aR, E - d.VR);
   const kR = Math.sqrt(Math.max(0, mRe * (d.VR - E) / C));
   const phi = Math.atan2(u, p);
   const thetaR = Math.atan2(mRe, -kR);
@@ -285,7 +297,7 @@ function sweepMatched(d: Unpacked, E: number, j: number, out: Sweep, st: Carry):
   startLeft(d, E, st);
   for (let i = 0; i < j; i++) carry(d, E, i, 1, st);
   const thetaL = st.zeros * PI + reducedAngle(st.u, st.p);
-  const mRe = d.mR * (1 + d.aR * (E - d.VR));
+  const mRe = d.mR * twoBandFactor(d.aR, E - d.VR);
   st.u = 1;
   st.p = -Math.sqrt(Math.max(0, mRe * (d.VR - E) / C)) / mRe;
   st.zeros = 0;
@@ -314,7 +326,7 @@ function matchingBoundary(d: Unpacked, E: number, st: Carry, log: Float64Array):
     st.u /= a;
     st.p /= a;
   }
-  const mRe = d.mR * (1 + d.aR * (E - d.VR));
+  const mRe = d.mR * twoBandFactor(d.aR, E - d.VR);
   st.u = 1;
   st.p = -Math.sqrt(Math.max(0, mRe * (d.VR - E) / C)) / mRe;
   let right = Math.log(Math.abs(st.u) + Math.abs(st.p));
@@ -665,11 +677,11 @@ export function wavefunction(profile: BandProfile, energy: number, z_nm: Float64
   const ss = new Float64Array(n);
   for (let i = 0; i < n; i++) {
     const dV = E - V[i]!;
-    ms[i] = mass[i]! * (1 + alpha[i]! * dV);
+    ms[i] = mass[i]! * twoBandFactor(alpha[i]!, dV);
     ss[i] = (ms[i]! * dV) / C;
   }
-  const mLe = d.mL * (1 + d.aL * (E - d.VL));
-  const mRe = d.mR * (1 + d.aR * (E - d.VR));
+  const mLe = d.mL * twoBandFactor(d.aL, E - d.VL);
+  const mRe = d.mR * twoBandFactor(d.aR, E - d.VR);
   const kL = Math.sqrt((mLe * (d.VL - E)) / C);
   const kR = Math.sqrt((mRe * (d.VR - E)) / C);
 

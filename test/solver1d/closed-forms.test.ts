@@ -14,12 +14,13 @@ const energies = (s: { states: readonly { energy: number }[] }): number[] => s.s
  * matching (BenDaniel and Duke, Phys. Rev. 152, 683 (1966); G. Bastard, Wave Mechanics Applied to
  * Semiconductor Heterostructures (1988), ch. III): even k tan(kL/2)/mw = κ/mb, odd −k cot(kL/2)/mw = κ/mb,
  * written pole-free as k sin/mw − κ cos/mb = 0 and k cos/mw + κ sin/mb = 0, with the two-band masses
- * mw(E) = mw (1 + aw E), mb(E) = mb (1 + ab (E − V0)) inserted when alpha ≠ 0.
+ * mw(E) = mw (1 + aw E), mb(E) = mb (1 + ab (E − V0)) inserted when alpha ≠ 0, the latter kept
+ * above mb · floor when a floor is given.
  */
-function squareWellLevels(L: number, V0: number, mw: number, mb: number, aw = 0, ab = 0): number[] {
+function squareWellLevels(L: number, V0: number, mw: number, mb: number, aw = 0, ab = 0, floor = -Infinity): number[] {
   const parts = (E: number): [number, number, number, number] => {
     const mwE = mw * (1 + aw * E);
-    const mbE = mb * (1 + ab * (E - V0));
+    const mbE = mb * Math.max(1 + ab * (E - V0), floor);
     return [Math.sqrt((mwE * E) / C), Math.sqrt((mbE * (V0 - E)) / C), mwE, mbE];
   };
   const even = (E: number): number => {
@@ -269,5 +270,19 @@ describe('non-parabolic mass (two-band form)', () => {
       expect(d1).toBeLessThan(0); // a heavier mass lowers the level
       expect(near(d2 / d1, 2, 0.02), message(`E${k + 1} slope ratio`, { alpha: [1e-4, 2e-4] }, d2 / d1, 2, 0.02)).toBe(true);
     });
+  });
+
+  it('a barrier deeper than its own gap: the two-band mass is floored at 0.1 and every level matches the floored matching within 1e-10 eV', () => {
+    // V0 = 3 eV above the well with alpha = 0.5 /eV (a 2 eV gap): below E = 1.2 eV the barrier's two-band
+    // factor 1 + alpha (E − V0) falls under 0.1 and then below zero, where the single-band mass has no
+    // meaning; the product keeps it at 0.1 (engine/solver1d.ts, twoBandFactor). This was refused as
+    // bad input ("makes the mass non-positive") although such depths are reached by every state of a
+    // well under a field across thick claddings.
+    const [Ld, V0, mw, mb, ab] = [8, 3, 0.067, 0.092, 0.5];
+    const expected = squareWellLevels(Ld, V0, mw, mb, 0, ab, 0.1);
+    const got = energies(solveBand(profileOf([layer(Ld, 0, mw)], outer(V0, mb, ab))));
+    expect(got.length, message('state count', { V0, ab }, got.length, expected.length, 0)).toBe(expected.length);
+    expect(expected.filter((e) => 1 + ab * (e - V0) < 0.1).length).toBeGreaterThan(1);
+    got.forEach((e, k) => expect(near(e, expected[k]!, 1e-10), message(`E${k + 1}`, { V0, ab }, e, expected[k]!, 1e-10)).toBe(true));
   });
 });

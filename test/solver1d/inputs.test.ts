@@ -26,6 +26,8 @@ describe('input errors', () => {
     ['profile.slices[0].V', profileOf([layer(5, Number.NaN, 0.067)], outer(0.3, 0.092))],
     ['profile.left.mass', profileOf([layer(5, 0, 0.067)], outer(0.3, -0.1), outer(0.3, 0.092))],
     ['profile.slices[0].alpha', profileOf([layer(5, 0, 0.067, -10)], outer(0.3, 0.092))],
+    // The two-band alpha is 1/Eg: a negative one would make the mass fall with E and void the count.
+    ['profile.right.alpha', profileOf([layer(5, 0, 0.067)], outer(0.3, 0.092), outer(0.3, 0.092, -0.1))],
   ])('%s is named in the error', (field, p) => {
     const e = thrown(() => solveBand(p));
     expect(e.field).toBe(field);

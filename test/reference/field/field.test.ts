@@ -1,8 +1,8 @@
 /**
- * The applied field through the whole pipeline: profile slicing, the raised outer regions,
- * Richardson extrapolation and quasi-bound flagging, checked against an independent
- * finite-difference solve (test/solver1d/fd-reference.ts) and against the quadratic
- * quantum-confined Stark effect (D. A. B. Miller et al., Phys. Rev. Lett. 53, 2173 (1984)).
+ * The applied field through the whole pipeline: profile slicing, the flat contacts, Richardson
+ * extrapolation and quasi-bound flagging, checked against an independent finite-difference solve
+ * (test/solver1d/fd-reference.ts) and against the quadratic quantum-confined Stark effect
+ * (D. A. B. Miller et al., Phys. Rev. Lett. 53, 2173 (1984)). Resonances themselves: resonances.test.ts.
  */
 import { describe, expect, it } from 'vitest';
 import { parseSpecText } from '../../../engine/spec/load.js';
@@ -72,7 +72,7 @@ stack:
 });
 
 describe('a search and solve see the same states under a field', () => {
-  it('energies-only solves of a limited count report the states a full solve reports (contact box states sorted out either way)', async () => {
+  it('energies-only solves of a limited count report the states a full solve reports', async () => {
     const { solveStructure, settingsOf } = await import('../../../engine/solve.js');
     for (const [w, F] of [[6.5, 20], [5.0, 5], [8, 40]] as const) {
       const s = parseSpecText(`
