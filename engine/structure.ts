@@ -437,7 +437,7 @@ export function buildStructure(spec: Spec, values: Readonly<Record<string, numbe
     const gap = Ec - Math.max(Ehh, Elh);
     const custom = typeof source === 'string' ? spec.materials![source]!.nonparabolicity : undefined;
     // A closed or inverted gap has no Kane non-parabolicity of this form: the band is taken parabolic there.
-    const alpha = custom !== undefined ? num(custom, (x) => { const q = splitQuantity(x); return q ? q.value : `expected a number in 1/eV, got ${JSON.stringify(x)}`; }, `materials.${source as string}.nonparabolicity`, 0)
+    const alpha = custom !== undefined ? num(custom, (x) => { const q = splitQuantity(x); return q && q.value >= 0 ? q.value : `expected a non-negative number in 1/eV (a negative α would make the mass fall with energy), got ${JSON.stringify(x)}`; }, `materials.${source as string}.nonparabolicity`, 0)
       : gap > 0 ? (typeof source === 'string' ? 1 / gap : nonparabolicity(models.nonparabolicity, { Eg: gap, Dso: m.Dso, me: m.me })) : 0;
     return { material: m, bands: { Ec, Ehh, Elh, me: m.me, mhh_z: m.mhh_z, mlh_z: m.mlh_z, mhh_par: m.mhh_par, mlh_par: m.mlh_par, alpha } };
   };

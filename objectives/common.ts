@@ -42,6 +42,14 @@ export function transitionEnergy(r: TargetSource, label: string): { energy: numb
   return { energy: Math.abs(sb.energy - sa.energy), missing: sa.missing || sb.missing };
 }
 
+/**
+ * Exciton binding estimate (eV) of an interband line, from the solve's transition list; NaN when
+ * it was not estimated (no wavefunctions, a material without a permittivity, or the line is absent).
+ */
+export function excitonBinding(r: TargetSource, label: string): number {
+  return r.transitions.find((t) => t.label === label)?.exciton_binding_eV ?? NaN;
+}
+
 export function energyOf(raw: string | number, field: string): number {
   const v = parseEnergy(raw);
   if (typeof v === 'string') throw new InputError('bad-value', `${field}: ${v}`, field);

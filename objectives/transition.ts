@@ -2,7 +2,7 @@
 import { z } from 'zod';
 import { InputError } from '../engine/errors.js';
 import { MISSING_STATE_PENALTY, type Objective } from './types.js';
-import { photonScale, quantity, transitionEnergy, transitionStates, weight } from './common.js';
+import { excitonBinding, photonScale, quantity, transitionEnergy, transitionStates, weight } from './common.js';
 import { parseLength, parseEnergy, splitQuantity } from '../engine/spec/units.js';
 
 const schema = z.object({
@@ -11,6 +11,7 @@ const schema = z.object({
   wavelength: quantity.optional().describe('Goal as a wavelength ("976 nm", "9 µm")'),
   wavenumber: quantity.optional().describe('Goal as a wavenumber ("1100 cm-1")'),
   within: quantity.describe('Half-width of the acceptance window, in the goal\'s kind of unit'),
+  exciton: z.boolean().optional().describe('Target the exciton line (the subband edge minus the exciton binding estimate), as photoluminescence and absorption show it; interband lines of layer stacks only'),
   weight,
 }).strict();
 export type TransitionTarget = z.infer<typeof schema>;
@@ -44,10 +45,13 @@ export const transitionObjective: Objective<TransitionTarget> = {
   kind: 'transition',
   description: 'a transition line (e1-hh1, e1-lh1, e1-e2…) at an energy, wavelength or wavenumber, within a window',
   schema,
-  needsWavefunctions: () => false,
+  needsWavefunctions: (t) => t.exciton === true,
   statesNeeded: (t) => t.transition.split('-'),
-  check: (t, field) => {
-    transitionStates(t.transition, `${field}.transition`);
+  check: (t, field, geometry) => {
+    const [, upper] = transitionStates(t.transition, `${field}.transition`);
+    if (t.exciton && (geometry === 'wire' || upper.startsWith('e'))) {
+      throw new InputError('bad-value', `${field}.exciton: the exciton estimate covers interband lines of layer stacks, got ${t.transition} on a ${geometry === 'wire' ? 'wire' : 'single band'}; remove "exciton" or target an e-hh or e-lh line of a well`, `${field}.exciton`);
+    }
     const g = goalOf(t);
     windowOf(t, photonScale(g.raw, `${field}.${g.key}`).unit, field);
   },
@@ -55,12 +59,15 @@ export const transitionObjective: Objective<TransitionTarget> = {
     const g = goalOf(t);
     const scale = photonScale(g.raw, g.key);
     const within = windowOf(t, scale.unit, 'target');
-    const e = transitionEnergy(r, t.transition);
+    const bare = transitionEnergy(r, t.transition);
+    // A binding that could not be estimated (a custom material without a permittivity) counts as missing.
+    const binding = t.exciton ? excitonBinding(r, t.transition) : 0;
+    const e = { energy: bare.energy - (Number.isFinite(binding) ? binding : 0), missing: bare.missing || !Number.isFinite(binding) };
     const achieved = scale.fromEv(e.energy);
     const goal = scale.fromEv(scale.goal_eV);
     const residual = (achieved - goal) / within;
     return {
-      label: `${t.transition} ${g.key}`,
+      label: `${t.transition}${t.exciton ? ' exciton' : ''} ${g.key}`,
       role: 'target',
       achieved: e.missing ? null : achieved,
       goal,

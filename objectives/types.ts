@@ -28,6 +28,8 @@ export interface TargetTransition {
   readonly overlap2: number;
   /** Intersubband lines of a layer stack only. */
   readonly oscillator_strength?: number;
+  /** Interband lines of a layer stack: exciton binding estimate (eV), NaN when not estimated. */
+  readonly exciton_binding_eV?: number;
 }
 
 /** Layer data the grower's constraints read; a wire has none (constraints are refused for it at compile time). */

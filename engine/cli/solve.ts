@@ -45,13 +45,14 @@ export function describeSolve(r: SolveResult): string {
   const out: string[] = [];
   if (r.structure.title) out.push(r.structure.title, '');
   out.push(describeStructure(r.structure), '');
-  const stateRows = BANDS.flatMap((b) => r.bands[b].states.map((s) => [b.replace('_', ' '), s.label, fixed(s.energy_eV, 5), fixed(s.confinement_meV, 2), s.bound ? 'yes' : 'quasi', fixed(s.mass_inplane, 4)]));
-  out.push('States (energies on the absolute scale; confinement from the band extremum)', table(['band', 'state', 'energy eV', 'confinement meV', 'bound', 'm∥ m0'], stateRows), '');
+  const stateRows = BANDS.flatMap((b) => r.bands[b].states.map((s) => [b.replace('_', ' '), s.label, fixed(s.energy_eV, 5), fixed(s.confinement_meV, 2), s.bound ? 'yes' : 'quasi', s.bound ? '–' : sig(s.width_meV, 3), fixed(s.mass_inplane, 4)]));
+  const quasi = BANDS.some((b) => r.bands[b].states.some((s) => !s.bound));
+  out.push(`States (energies on the absolute scale; confinement from the band extremum${quasi ? '; quasi-bound states are resonances of the well under the field, Γ their width (FWHM), lifetime ħ/Γ' : ''})`, table(['band', 'state', 'energy eV', 'confinement meV', 'bound', 'Γ meV', 'm∥ m0'], stateRows), '');
   // The table keeps the lines a designer reads; --json lists every pair.
   const inter = r.transitions.filter((t) => t.kind === 'interband');
   const strong = inter.filter((t) => t.overlap2 >= WEAK_OVERLAP2);
   const hidden = inter.length - strong.length;
-  if (inter.length > 0) out.push(`Interband transitions (overlap² ≥ ${WEAK_OVERLAP2}${hidden ? `; ${hidden} weaker ones in --json` : ''})`, table(['transition', 'energy eV', 'wavelength nm', 'overlap²'], strong.map((t) => [t.label, fixed(t.energy_eV, 5), fixed(t.wavelength_nm, 2), fixed(t.overlap2, 4)])), '');
+  if (inter.length > 0) out.push(`Interband transitions (overlap² ≥ ${WEAK_OVERLAP2}${hidden ? `; ${hidden} weaker ones in --json` : ''}; E_b: exciton binding estimate, the exciton line lies E_b below)`, table(['transition', 'energy eV', 'wavelength nm', 'overlap²', 'E_b meV'], strong.map((t) => [t.label, fixed(t.energy_eV, 5), fixed(t.wavelength_nm, 2), fixed(t.overlap2, 4), fixed((t.exciton_binding_eV ?? NaN) * 1000, 2)])), '');
   const isb = r.transitions.filter((t) => t.kind === 'intersubband' && t.label.startsWith('e1-'));
   if (isb.length > 0) out.push('Intersubband transitions from e1 (all pairs in --json)', table(['transition', 'energy meV', 'wavelength µm', 'wavenumber cm⁻¹', 'dipole nm', 'osc. strength'], isb.map((t) => [t.label, fixed(t.energy_eV * 1000, 2), fixed(t.wavelength_nm / 1000, 3), fixed(t.wavenumber_per_cm, 1), fixed(t.dipole_nm, 4), fixed(t.oscillator_strength, 4)])), '');
   const dosRows = BANDS.flatMap((b) => r.dos.bands[b].map((d) => [d.label, fixed(d.edge_eV, 5), fixed(d.mass_inplane, 4), sig(d.step_per_cm2_per_eV, 4)]));

@@ -45,8 +45,10 @@ export async function bandSection(r: SolveResult, id = 'bands'): Promise<Section
 }
 
 export function statesSection(r: SolveResult, id = 'states'): Section {
-  const rows = BANDS.flatMap((b) => r.bands[b].states.map((s) => [b.replace('_', ' '), s.label, fixed(s.energy_eV, 5), fixed(s.confinement_meV, 2), s.bound ? 'yes' : 'quasi', fixed(s.mass_inplane, 4)]));
-  return { id, title: 'Bound states', lead: r.status === 'ok' ? undefined : `status ${r.status}: ${r.message}`, html: htmlTable(['band', 'state', 'energy (eV)', 'confinement (meV)', 'bound', 'm∥ (m0)'], rows, [2, 3, 5]) };
+  const rows = BANDS.flatMap((b) => r.bands[b].states.map((s) => [b.replace('_', ' '), s.label, fixed(s.energy_eV, 5), fixed(s.confinement_meV, 2), s.bound ? 'yes' : 'quasi', s.bound ? '–' : sig(s.width_meV, 3), fixed(s.mass_inplane, 4)]));
+  const quasi = BANDS.some((b) => r.bands[b].states.some((s) => !s.bound));
+  const lead = [r.status === 'ok' ? '' : `status ${r.status}: ${r.message}.`, quasi ? 'Quasi-bound states are resonances of the well under the field; Γ is their width (FWHM), ħ/Γ their lifetime.' : ''].join(' ').trim();
+  return { id, title: 'Bound states', lead: lead || undefined, html: htmlTable(['band', 'state', 'energy (eV)', 'confinement (meV)', 'bound', 'Γ (meV)', 'm∥ (m0)'], rows, [2, 3, 5, 6]) };
 }
 
 /** Interband pairs with a smaller envelope overlap² are (nearly) forbidden and left out of the table. */
@@ -61,8 +63,8 @@ export function transitionsSection(r: SolveResult, id = 'transitions'): Section 
   const omitted = r.transitions.length - inter.length - isb.length;
   const parts: string[] = [];
   if (inter.length > 0) {
-    parts.push('<h3>Interband</h3>', htmlTable(['transition', 'energy (eV)', 'wavelength (nm)', 'overlap²'],
-      inter.map((t) => [t.label, fixed(t.energy_eV, 5), fixed(t.wavelength_nm, 2), fixed(t.overlap2, 4)]), [1, 2, 3]));
+    parts.push('<h3>Interband</h3>', htmlTable(['transition', 'energy (eV)', 'wavelength (nm)', 'overlap²', 'exciton binding (meV)'],
+      inter.map((t) => [t.label, fixed(t.energy_eV, 5), fixed(t.wavelength_nm, 2), fixed(t.overlap2, 4), fixed((t.exciton_binding_eV ?? NaN) * 1000, 2)]), [1, 2, 3, 4]));
   }
   if (isb.length > 0) {
     parts.push('<h3>Intersubband</h3>', htmlTable(['transition', 'energy (meV)', 'wavelength (µm)', 'wavenumber (cm⁻¹)', 'dipole (nm)', 'oscillator strength'],

@@ -14,7 +14,8 @@
 import { describe, expect, it } from 'vitest';
 import { parseSpecText } from '../../../engine/spec/load.js';
 import { buildStructure } from '../../../engine/structure.js';
-import { solveStructure, findState } from '../../../engine/solve.js';
+import { solveStructure, findState, solve, findTransition } from '../../../engine/solve.js';
+import { compileTargets, scoreTargets } from '../../../objectives/index.js';
 import { permittivityOnGrid, subbandExciton } from '../../../engine/observables/exciton.js';
 import { simpsonWeights } from '../../../engine/observables/matrix-elements.js';
 
@@ -75,5 +76,34 @@ stack:
       massElectron: 0.067, massHole: 0.35, permittivity: permittivityOnGrid(s.layers, z) });
     expect(Math.abs(x.effectiveWidth_nm - 10), `L* = ${x.effectiveWidth_nm} nm`).toBeLessThan(0.05);
     expect(x.dielectricConstant).toBeCloseTo(12.9, 12);
+  });
+});
+
+describe('exciton-corrected transition targets', () => {
+  const spec = parseSpecText(`
+substrate: GaAs
+temperature: 4 K
+stack:
+  - { material: Al0.3Ga0.7As, thickness: 30 nm }
+  - { material: GaAs, thickness: 8 nm }
+  - { material: Al0.3Ga0.7As, thickness: 30 nm }
+`).spec;
+
+  it('score the line E(e1-hh1) − E_b, which solve reports beside the transition', () => {
+    const r = solve(spec);
+    const t = findTransition(r, 'e1-hh1')!;
+    expect(t.exciton_binding_eV! * 1000).toBeGreaterThan(6.5);
+    const [plain, exciton] = scoreTargets(compileTargets([
+      { transition: 'e1-hh1', energy: '1.55 eV', within: '5 meV' },
+      { transition: 'e1-hh1', energy: '1.55 eV', within: '5 meV', exciton: true },
+    ]), r).evaluations;
+    expect(plain!.achieved).toBeCloseTo(t.energy_eV, 12);
+    expect(exciton!.achieved).toBeCloseTo(t.energy_eV - t.exciton_binding_eV!, 12);
+    expect(exciton!.label).toBe('e1-hh1 exciton energy');
+  });
+
+  it('are refused for intersubband lines and wires, where the estimate does not apply', () => {
+    expect(() => compileTargets([{ transition: 'e1-e2', energy: '100 meV', within: '5 meV', exciton: true }])).toThrow(/exciton/);
+    expect(() => compileTargets([{ transition: 'e1-hh1', energy: '1.5 eV', within: '5 meV', exciton: true }], 'wire')).toThrow(/exciton/);
   });
 });
