@@ -369,7 +369,7 @@ export function solveStructure(structure: Structure, settings: SolverSettings = 
  * variable values. A `wire:` cross-section is solved by `solveWire` (engine/wire/solve.ts).
  */
 export function solve(spec: Spec, values: Readonly<Record<string, number>> = nominalVariables(spec)): SolveResult {
-  if (spec.wire !== undefined) throw new InputError('bad-value', 'wire: this spec describes a wire cross-section; solve it with solveWire (the CLI does so)', 'wire');
+  if (spec.wire !== undefined) throw new InputError('bad-value', 'wire: this spec describes a wire cross-section, not a layer stack; solve it as a wire ("wellsmith solve" does)', 'wire');
   const result = solveStructure(buildStructure(spec, values), settingsOf(spec));
   if (spec.carriers === undefined) return result;
   const n = parseSheetDensity(spec.carriers.sheet_density);

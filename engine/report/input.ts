@@ -8,8 +8,9 @@
  */
 import { InputError } from '../errors.js';
 import { parseSpecText, readInputText, type LoadedSpec } from '../spec/load.js';
-import { solve, solveStructure, type SolveResult, type SolverSettings } from '../solve.js';
-import type { Structure } from '../structure.js';
+import { settingsOf, solve, solveStructure, type SolveResult } from '../solve.js';
+import { buildStructure } from '../structure.js';
+import { specFromRecorded } from './recorded.js';
 import { compileTargets, scoreTargets, type Scored } from '../../objectives/index.js';
 import type { Evaluation } from '../../objectives/types.js';
 import type { DesignVariable } from '../design/search.js';
@@ -39,15 +40,17 @@ export type ReportInput =
 
 const isRecord = (v: unknown): v is Record<string, unknown> => typeof v === 'object' && v !== null && !Array.isArray(v);
 
+/** Re-solves a recorded result through the spec it records (engine/report/recorded.ts). */
 function resolveRecorded(v: Record<string, unknown>, where: string): SolveResult {
-  if (!isRecord(v.structure) || !Array.isArray(v.structure.layers) || !isRecord(v.settings)) {
-    throw new InputError('schema', `${where}: a recorded result needs "structure" (with "layers") and "settings", as "wellsmith solve --json" writes them; regenerate the file`);
+  if (!isRecord(v.structure) || !isRecord(v.settings)) {
+    throw new InputError('schema', `${where}: a recorded result needs "structure" and "settings", as "wellsmith solve --json" writes them; regenerate the file`);
   }
+  const spec = specFromRecorded(v.structure, v.settings, where);
   try {
-    return solveStructure(v.structure as unknown as Structure, v.settings as unknown as SolverSettings);
+    return solveStructure(buildStructure(spec, {}), settingsOf(spec));
   } catch (e) {
-    if (e instanceof InputError) throw e;
-    throw new InputError('schema', `${where}: the recorded structure cannot be solved again (${e instanceof Error ? e.message : String(e)}); regenerate the file with "wellsmith solve --json"`);
+    if (e instanceof InputError) throw new InputError(e.code, `${where}: the recorded structure is not a valid stack: ${e.message}; regenerate the file`, e.field);
+    throw e;
   }
 }
 
@@ -71,7 +74,11 @@ export function inputFromText(text: string, origin: string): ReportInput {
   if (trimmed.startsWith('{')) {
     let value: unknown;
     try {
-      value = JSON.parse(text, reviveNumbers);
+      // Non-finite numbers are revived only in the tolerance and wire paths, which read them as numbers;
+      // a recorded solve is rebuilt from its plain values (text that reads "NaN" stays text).
+      value = JSON.parse(text);
+      const recordedSolve = isRecord(value) && (Array.isArray(value.designs) || ('structure' in value && 'bands' in value && !('maps' in value)));
+      if (!recordedSolve) value = JSON.parse(text, reviveNumbers);
     } catch (e) {
       throw new InputError('schema', `${origin}: not valid JSON (${(e as Error).message}); give a spec, or the output of "wellsmith solve --json", "design --json" or "tolerance --json"`);
     }
