@@ -102,8 +102,12 @@ export function inputFromText(text: string, origin: string): ReportInput {
   return inputFromSpec(parseSpecText(text, origin));
 }
 
+/** Largest report input file (bytes). */
+const MAX_REPORT_INPUT_BYTES = 256 * 1048576;
+
 /** Reads a report input: a run folder or its campaign.sqlite (read only), or a file (spec, solve/design/tolerance --json). */
 export function loadReportInput(path: string): ReportInput {
   if (isRunStorePath(path)) return { kind: 'campaign', origin: path, report: readCampaign(path) };
-  return inputFromText(readInputText(path, 'report input (a spec, a --json output, or a campaign run folder)'), path);
+  // Recorded outputs with wavefunctions or |ψ|² maps run to tens of MiB.
+  return inputFromText(readInputText(path, 'report input (a spec, a --json output, or a campaign run folder)', MAX_REPORT_INPUT_BYTES), path);
 }

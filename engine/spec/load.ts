@@ -3,7 +3,7 @@
  * for files, the line. Errors found later (while resolving materials and variables) carry a field
  * path too; `locate` turns it into a line so the CLI can print "(line 14)" for them as well.
  */
-import { readFileSync } from 'node:fs';
+import { readFileSync, statSync } from 'node:fs';
 import { LineCounter, parseDocument, isMap, isPair, isScalar, type Document } from 'yaml';
 import type { z } from 'zod';
 import { InputError } from '../errors.js';
@@ -119,8 +119,23 @@ export function parseSpecText(text: string, origin = '<inline>'): LoadedSpec {
   return { spec: validateSpec(value, locate), origin, locate };
 }
 
-/** Reads a text input (spec, campaign file, report input); a failure is one input-error line naming the file. */
-export function readInputText(path: string, what: string): string {
+/** Largest spec file read (bytes): hand-written specs are a few kB; 4 MiB holds ~50 000 layers. */
+export const MAX_SPEC_BYTES = 4 * 1048576;
+
+/**
+ * Reads a text input (spec, campaign file, report input) of at most maxBytes, checked before it is
+ * read so that a wrong file cannot exhaust memory; a failure is one input-error line naming the file.
+ */
+export function readInputText(path: string, what: string, maxBytes = MAX_SPEC_BYTES): string {
+  let size = 0;
+  try {
+    size = statSync(path).size;
+  } catch {
+    // Missing or unreadable: the read below names the problem.
+  }
+  if (size > maxBytes) {
+    throw new InputError('io', `${what} "${path}" is ${(size / 1048576).toFixed(1)} MiB, more than the limit of ${maxBytes / 1048576} MiB; check that this is the right file`);
+  }
   try {
     return readFileSync(path, 'utf8');
   } catch (e) {
