@@ -5,7 +5,7 @@
  */
 import { HC_EV_NM, wavenumberPerCm } from './constants.js';
 import { buildBandProfile, isPiecewiseConstant, type BandName, type BandProfile } from './profile.js';
-import { solveBand, twoBandFactor, wavefunction } from './solver1d.js';
+import { solveBand, solveBandExtrapolated, twoBandFactor, wavefunction } from './solver1d.js';
 import { followResonance, resonanceWavefunction, resonanceWidth, siegertPole, type Pole } from './resonance.js';
 import { buildStructure, nominalVariables, PARAMETER_SET, type Structure } from './structure.js';
 import type { Spec } from './spec/schema.js';
@@ -154,12 +154,8 @@ interface SolvedState {
 }
 
 interface SolvedBand {
-  /** The flat-sliced profile wavefunctions are sampled on (the finer one under a field or grade), built on first use. */
-  readonly profile: () => BandProfile;
-  /** Lowest potential and open edge of the band (eV, particle sense). */
-  readonly vmin: number;
-  readonly openEdge: number;
-  readonly sign: 1 | -1;
+  /** The profile wavefunctions are sampled on (the finer one where energies are extrapolated). */
+  readonly profile: BandProfile;
   readonly states: readonly SolvedState[];
   readonly evaluations: number;
 }
@@ -199,32 +195,30 @@ function peakOf(psi: Float64Array, z: Float64Array): number {
 }
 
 /**
- * The states of one band: bound states (below the open edge) from the exact real solver, under a
- * field or in graded layers on linear slices (Airy transfer, no slicing error to extrapolate);
- * under a field, above them the resonances that continue the remaining zero-field bound states, in
- * order (a state the continuation loses ends the list, so labels keep their zero-field order).
- * Resonance energies are Richardson-extrapolated in the flat slice width; widths come from the
- * finer profile (their slicing error is relative, below 1e-4 at the default 0.2 nm).
+ * The states of one band: bound states (below the open edge) from the exact real solver; under a
+ * field, above them the resonances that continue the remaining zero-field bound states, in order
+ * (a state the continuation loses ends the list, so labels keep their zero-field order). Energies
+ * of a field are Richardson-extrapolated in the slice width; widths come from the finer profile
+ * (their slicing error is relative, below 1e-4 at the default 0.2 nm).
  */
 function solveOneBand(structure: Structure, band: BandName, settings: SolverSettings, ask: number): SolvedBand {
   const build = (h: number, s: Structure = structure): BandProfile => buildBandProfile(s, band, { maxSlice_nm: h, nonparabolic: settings.nonparabolic });
-  const flat = isPiecewiseConstant(structure);
-  let sampled: BandProfile | undefined;
-  const profile = (): BandProfile => (sampled ??= build(flat ? settings.slice_nm : settings.slice_nm / 2));
-  const exact = flat ? profile() : buildBandProfile(structure, band, { maxSlice_nm: settings.slice_nm, nonparabolic: settings.nonparabolic, linear: true });
-  let vmin = Infinity;
-  for (const s of exact.slices) vmin = Math.min(vmin, s.V - 0.5 * Math.abs(s.gradient?.V ?? 0) * s.width_nm);
-  const band0 = { profile, vmin, openEdge: exact.openEdge, sign: exact.sign };
-  if (ask === 0) return { ...band0, states: [], evaluations: 0 };
+  if (ask === 0) return { profile: build(settings.slice_nm), states: [], evaluations: 0 };
   const options = Number.isFinite(ask) ? { maxStates: ask } : {};
   const asStates = (energies: readonly { energy: number; nodes: number }[]): SolvedState[] => energies.map((e) => ({ energy: e.energy, width: 0, nodes: e.nodes }));
-  const bound = solveBand(exact, options);
+  if (isPiecewiseConstant(structure)) {
+    const profile = build(settings.slice_nm);
+    const solution = solveBand(profile, options);
+    return { profile, states: asStates(solution.states), evaluations: solution.evaluations };
+  }
+  // Wavefunctions come from the finer profile; energies from the extrapolation.
+  const h = settings.slice_nm;
+  const fine = build(h / 2);
+  const bound = solveBandExtrapolated(build, h, options);
   const states = asStates(bound.states);
   let evaluations = bound.evaluations;
   const F = structure.field_kV_per_cm;
-  if (F === 0 || states.length >= ask) return { ...band0, states, evaluations };
-  const h = settings.slice_nm;
-  const fine = profile();
+  if (F === 0 || states.length >= ask) return { profile: fine, states, evaluations };
   const zeroProfile = build(h, { ...structure, field_kV_per_cm: 0 });
   const zeroSolution = solveBand(zeroProfile, Number.isFinite(ask) ? { maxStates: ask + 1 } : {});
   evaluations += zeroSolution.evaluations;
@@ -244,7 +238,7 @@ function solveOneBand(structure: Structure, band: BandName, settings: SolverSett
     if (!f) break;
     states.push({ energy: f.energy + (f.energy - c.energy) / 3, width: resonanceWidth(fine, f), nodes: k, pole: f });
   }
-  return { ...band0, states, evaluations };
+  return { profile: fine, states, evaluations };
 }
 
 /**
@@ -297,9 +291,11 @@ export function solveStructure(structure: Structure, settings: SolverSettings = 
     const ask = wanted === undefined ? settings.maxStates : Math.min(settings.maxStates, wanted);
     const solved = solveOneBand(structure, band, settings, ask);
     if (band === 'electron') electronBand = solved;
-    const { sign, vmin } = solved;
-    const profile = sample ? solved.profile() : undefined;
-    const waves = profile ? solved.states.map((s) => (s.pole ? resonanceWavefunction(profile, s.pole, z) : wavefunction(profile, s.energy, z))) : [];
+    const { profile } = solved;
+    const sign = profile.sign;
+    let vmin = Infinity;
+    for (const s of profile.slices) vmin = Math.min(vmin, s.V);
+    const waves = sample ? solved.states.map((s) => (s.pole ? resonanceWavefunction(profile, s.pole, z) : wavefunction(profile, s.energy, z))) : [];
     const states = solved.states.map((s, k): StateResult => ({
       label: `${PREFIX[band]}${k + 1}`,
       index: k + 1,
@@ -308,9 +304,9 @@ export function solveStructure(structure: Structure, settings: SolverSettings = 
       bound: s.pole === undefined,
       width_meV: s.width * 1000,
       nodes: s.nodes,
-      mass_inplane: profile ? inPlaneMass(profile, z, waves[k]!, s.energy) : NaN,
+      mass_inplane: sample ? inPlaneMass(profile, z, waves[k]!, s.energy) : NaN,
     }));
-    bands[band] = { states, edge_eV: sign * vmin, barrier_eV: sign * solved.openEdge, evaluations: solved.evaluations };
+    bands[band] = { states, edge_eV: sign * vmin, barrier_eV: sign * profile.openEdge, evaluations: solved.evaluations };
     psi[band] = waves;
     dosBands[band] = states.map((s) => ({ label: s.label, edge_eV: s.energy_eV, mass_inplane: s.mass_inplane, step_per_cm2_per_eV: sample ? stepHeight2d(s.mass_inplane) : NaN }));
   }
@@ -342,7 +338,7 @@ export function solveStructure(structure: Structure, settings: SolverSettings = 
   // energy-dependent mass (intersubbandStates); a resonance has no finite norm there, so a pair with
   // one keeps the single-band integrals on the stack grid, about the stack's centre.
   const bound = electrons.filter((s) => s.bound).length;
-  const twoBand = sample && bound > 1 ? intersubbandStates(electronBand!.profile(), electronBand!.states.slice(0, bound).map((s) => s.energy)) : undefined;
+  const twoBand = sample && bound > 1 ? intersubbandStates(electronBand!.profile, electronBand!.states.slice(0, bound).map((s) => s.energy)) : undefined;
   const centred = grid ? { z: z.map((x) => x - structure.total_nm / 2), w: grid.w } : undefined;
   for (let i = 0; i < electrons.length; i++) {
     for (let j = i + 1; j < electrons.length; j++) {
