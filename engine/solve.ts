@@ -10,7 +10,8 @@ import { followResonance, resonanceWavefunction, resonanceWidth, siegertPole, ty
 import { buildStructure, nominalVariables, PARAMETER_SET, type Structure } from './structure.js';
 import type { Spec } from './spec/schema.js';
 import { parseLength, parseSheetDensity } from './spec/units.js';
-import { quasiFermiLevels } from './observables/carriers.js';
+import { quasiFermiLevels, quasiFermiLevelsMultiband, type HoleDispersion } from './observables/carriers.js';
+import { valenceOfSolve, type ValenceSummary } from './valence/summary.js';
 import { InputError } from './errors.js';
 import { dipoleNm, intersubbandStates, oscillatorStrength, overlap2, weightedGrid } from './observables/matrix-elements.js';
 import { permittivityOnGrid, subbandExciton } from './observables/exciton.js';
@@ -29,9 +30,21 @@ export interface SolverSettings {
   readonly maxStates: number;
   /** Spacing of the z grid on which wavefunctions are sampled for overlaps (nm). */
   readonly grid_nm: number;
+  /**
+   * Valence model of `solve`'s hole dispersions, DOS and quasi-Fermi levels (absent: 'kp4'); the
+   * subband edges at k∥ = 0 are the single-band ones whatever the model, so searches never need it.
+   */
+  readonly valence?: 'kp4' | 'kp6' | 'parabolic';
+  /** Axial approximation for those dispersions (absent: false). */
+  readonly valenceAxial?: boolean;
 }
 
-export const DEFAULT_SETTINGS: SolverSettings = { nonparabolic: true, slice_nm: 0.2, maxStates: Infinity, grid_nm: 0.05 };
+/**
+ * Defaults. Valence kp4: the hole DOS of strained and unstrained wells is two to three times the
+ * parabolic in-plane one (heavy/light-hole mixing), which sets quasi-Fermi levels and the gain
+ * condition; kp6 adds the split-off band (it matters for tensile strain and narrow-Δ materials).
+ */
+export const DEFAULT_SETTINGS: SolverSettings = { nonparabolic: true, slice_nm: 0.2, maxStates: Infinity, grid_nm: 0.05, valence: 'kp4', valenceAxial: false };
 
 export interface StateResult {
   readonly label: string;
@@ -124,6 +137,8 @@ export interface SolveResult {
   readonly dos: { readonly dimension: 2; readonly unit: string; readonly bands: Readonly<Record<BandName, readonly DosStep[]>> };
   /** Present when the spec gives carriers.sheet_density. */
   readonly carriers?: CarrierResult;
+  /** Valence subband dispersions and DOS masses (`solve` with a multiband valence model and bound holes). */
+  readonly valence?: ValenceSummary;
   /** Wavefunctions on a uniform z grid (nm; z = 0 at the first layer's start), per band per state. */
   readonly wavefunctions: { readonly z_nm: Float64Array; readonly psi: Readonly<Record<BandName, readonly Float64Array[]>> };
 }
@@ -142,6 +157,8 @@ export function settingsOf(spec: Spec): SolverSettings {
     slice_nm,
     maxStates: s.max_states ?? DEFAULT_SETTINGS.maxStates,
     grid_nm: DEFAULT_SETTINGS.grid_nm,
+    valence: s.valence ?? DEFAULT_SETTINGS.valence,
+    valenceAxial: s.valence_axial ?? DEFAULT_SETTINGS.valenceAxial,
   };
 }
 
@@ -374,29 +391,37 @@ export function solveStructure(structure: Structure, settings: SolverSettings = 
  */
 export function solve(spec: Spec, values: Readonly<Record<string, number>> = nominalVariables(spec)): SolveResult {
   if (spec.wire !== undefined) throw new InputError('bad-value', 'wire: this spec describes a wire cross-section, not a layer stack; solve it as a wire ("wellsmith solve" does)', 'wire');
-  const result = solveStructure(buildStructure(spec, values), settingsOf(spec));
+  const settings = settingsOf(spec);
+  const solved = solveStructure(buildStructure(spec, values), settings);
+  const holeCount = solved.bands.heavy_hole.states.length + solved.bands.light_hole.states.length;
+  const model = settings.valence ?? 'kp4';
+  const valence = model !== 'parabolic' && holeCount > 0 && solved.status !== 'unphysical' ? valenceOfSolve(solved.structure, model, settings.valenceAxial ?? false, holeCount) : undefined;
+  const result = valence ? { ...solved, valence: valence.summary } : solved;
   if (spec.carriers === undefined) return result;
   const n = parseSheetDensity(spec.carriers.sheet_density);
   if (typeof n === 'string') throw new InputError('bad-value', `carriers.sheet_density: ${n}`, 'carriers.sheet_density');
-  const carriers = carriersOf(result, n);
+  const carriers = carriersOf(result, n, valence?.holes);
   return carriers ? { ...result, carriers } : result;
 }
 
 /**
  * Quasi-Fermi levels for n = p injected per unit area, each carrier in equilibrium among its own
- * bound subbands (common practice for lasers under injection), with the probability-weighted
- * in-plane masses. Undefined when electrons or holes have no bound subband or T = 0.
+ * bound subbands (common practice for lasers under injection): electrons with their
+ * probability-weighted in-plane masses, holes from the multiband dispersions when given (the
+ * k·p subbands of valenceOfSolve), else with parabolic in-plane masses. Undefined when electrons
+ * or holes have no bound subband or T = 0.
  */
-export function carriersOf(r: SolveResult, sheetDensity_cm2: number): CarrierResult | undefined {
+export function carriersOf(r: SolveResult, sheetDensity_cm2: number, holeDispersion?: HoleDispersion): CarrierResult | undefined {
   const T = r.structure.temperature_K;
   const holes = [...r.bands.heavy_hole.states, ...r.bands.light_hole.states];
   if (r.bands.electron.states.length === 0 || holes.length === 0 || !(T > 0)) return undefined;
-  const q = quasiFermiLevels({
-    electronSubbands: r.bands.electron.states.map((s) => ({ energy: s.energy_eV, mass: s.mass_inplane })),
-    holeSubbands: holes.map((s) => ({ energy: -s.energy_eV, mass: s.mass_inplane })),
-    sheetDensity_cm2,
-    temperature_K: T,
-  });
+  const electronSubbands = r.bands.electron.states.map((s) => ({ energy: s.energy_eV, mass: s.mass_inplane }));
+  const q = holeDispersion
+    ? quasiFermiLevelsMultiband({ electronSubbands, holeDispersion, sheetDensity_cm2, temperature_K: T })
+    : quasiFermiLevels({ electronSubbands, holeSubbands: holes.map((s) => ({ energy: -s.energy_eV, mass: s.mass_inplane })), sheetDensity_cm2, temperature_K: T });
+  const holeModel = holeDispersion && r.valence
+    ? `holes from the ${r.valence.model === 'kp4' ? '4×4' : '6×6'} k·p subband dispersions (DOS averaged over ${r.valence.axial ? 'the axial approximation' : '[100] and [110]'})`
+    : 'holes with parabolic in-plane masses of the single-band subbands';
   const e1 = r.bands.electron.states[0]!.energy_eV;
   const topHole = Math.max(...holes.map((s) => s.energy_eV));
   return {
@@ -406,7 +431,7 @@ export function carriersOf(r: SolveResult, sheetDensity_cm2: number): CarrierRes
     hole_quasi_fermi_eV: q.hole_eV,
     separation_eV: q.separation_eV,
     inversion: q.separation_eV > e1 - topHole,
-    note: 'bound subbands only: at densities that fill states near the barrier edge the continuum also holds carriers',
+    note: `${holeModel}; bound subbands only: at densities that fill states near the barrier edge the continuum also holds carriers`,
   };
 }
 

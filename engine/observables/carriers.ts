@@ -186,3 +186,133 @@ export function quasiFermiLevels(args: {
   const hole = -fermiLevelForSheetDensity({ subbands: args.holeSubbands, density_cm2: args.sheetDensity_cm2, temperature_K: args.temperature_K });
   return { electron_eV: electron, hole_eV: hole, separation_eV: electron - hole };
 }
+
+/**
+ * In-plane dispersions of hole subbands, as plain data: the same k grid for every direction, and per
+ * direction a quadrature weight (the weights sum to 1 over the in-plane angle) and the branches'
+ * energies (eV, absolute scale: electron energies, holes lie lower) at each k. Every branch is one
+ * state per k (spin is not counted again). engine/valence/dos.ts builds it from the multiband solver.
+ */
+export interface HoleDispersion {
+  readonly k_per_nm: ArrayLike<number>;
+  readonly directions: readonly { readonly weight: number; readonly branches: readonly ArrayLike<number>[] }[];
+}
+
+const NM2_TO_CM2 = 1e14;
+
+/** ln(1 + e^x) / e^x, finite for every x (→ 1 for x → −∞). */
+const softplusOverExp = (x: number): number => (x > 30 ? (x + Math.log1p(Math.exp(-x))) * Math.exp(-x) : x < -30 ? 1 - 0.5 * Math.exp(x) : Math.log1p(Math.exp(x)) * Math.exp(-x));
+
+/** Checks a dispersion once: finite energies, k ascending from 0, weights positive and summing to 1. */
+function checkDispersion(d: HoleDispersion, where: string): void {
+  const k = d.k_per_nm;
+  if (k.length < 2) fail(`${where}.k_per_nm`, 'needs at least two points', k.length, 'pass a k grid from 0 outwards');
+  for (let i = 0; i < k.length; i++) {
+    if (!Number.isFinite(k[i]!) || (i === 0 ? k[0] !== 0 : !(k[i]! > k[i - 1]!))) fail(`${where}.k_per_nm[${i}]`, 'must start at 0 and increase', k[i], 'pass an ascending grid from k = 0 (1/nm)');
+  }
+  if (d.directions.length === 0) fail(`${where}.directions`, 'needs at least one direction', 0, 'pass the in-plane directions with their weights');
+  let sum = 0;
+  d.directions.forEach((dir, j) => {
+    if (!(dir.weight > 0)) fail(`${where}.directions[${j}].weight`, 'must be positive', dir.weight, 'pass the quadrature weight of the direction');
+    sum += dir.weight;
+    dir.branches.forEach((b, n) => {
+      if (b.length !== k.length) fail(`${where}.directions[${j}].branches[${n}]`, `must have one energy per k (${k.length})`, b.length, 'pass E(k) on the k grid');
+      for (let i = 0; i < b.length; i++) if (!Number.isFinite(b[i]!)) fail(`${where}.directions[${j}].branches[${n}][${i}]`, 'must be finite (eV)', b[i], 'pass finite energies');
+    });
+  });
+  if (Math.abs(sum - 1) > 1e-9) fail(`${where}.directions`, 'weights must sum to 1', sum, 'normalise the angular quadrature weights');
+}
+
+/**
+ * ln of the hole sheet density (ln cm⁻²) at hole quasi-Fermi level F (eV, absolute), from dispersions:
+ * p = Σ_dir w Σ_branch (1/2π) ∫ k dk / (1 + e^((F − E(k))/kT)) (one state per branch per (2π)² of
+ * k-space area; 1 − f is the hole occupancy). With u = k² and E linear in u between grid points —
+ * exact for parabolic bands — each interval integrates in closed form:
+ * ∫ du/(1 + e^((F − E)/kT)) = (kT/s)[ln(1 + e^(x_b)) − ln(1 + e^(x_a))], x = (E − F)/kT, s = dE/du;
+ * beyond the last point each branch continues with its last slope (the parabolic tail), or adds
+ * nothing if it is not falling there. Factored by e^(x_max) so that it stays finite far from the band.
+ */
+function logHoleDensity(d: HoleDispersion, F: number, kT: number): number {
+  const k = d.k_per_nm;
+  let xmax = -Infinity;
+  for (const dir of d.directions) for (const b of dir.branches) for (let i = 0; i < b.length; i++) xmax = Math.max(xmax, (b[i]! - F) / kT);
+  const shift = Math.min(xmax, 0);
+  // e^(−shift) ln(1 + e^x) = e^(x − shift) · softplusOverExp(x)
+  const sp = (x: number): number => Math.exp(x - shift) * softplusOverExp(x);
+  let total = 0;
+  for (const dir of d.directions) {
+    let sum = 0;
+    for (const b of dir.branches) {
+      for (let i = 0; i + 1 < k.length; i++) {
+        const ua = k[i]! * k[i]!;
+        const ub = k[i + 1]! * k[i + 1]!;
+        const xa = (b[i]! - F) / kT;
+        const xb = (b[i + 1]! - F) / kT;
+        const s = (b[i + 1]! - b[i]!) / (ub - ua);
+        // Nearly flat intervals: the midpoint rule, to avoid 0/0.
+        sum += Math.abs(xb - xa) < 1e-9 ? (ub - ua) * Math.exp(0.5 * (xa + xb) - shift) / (1 + Math.exp(0.5 * (xa + xb))) : ((kT / s) * (sp(xb) - sp(xa)));
+      }
+      const n = k.length - 1;
+      const s = (b[n]! - b[n - 1]!) / (k[n]! * k[n]! - k[n - 1]! * k[n - 1]!);
+      if (s < 0) sum += (-kT / s) * sp((b[n]! - F) / kT);
+    }
+    total += dir.weight * sum;
+  }
+  // (1/2π)·(1/2)∫du per branch, nm⁻² → cm⁻².
+  return Math.log((total / (4 * Math.PI)) * NM2_TO_CM2) + shift;
+}
+
+/**
+ * Hole sheet density of multiband valence subbands from their in-plane dispersions (the hole DOS of
+ * the k·p solver, engine/valence/), Fermi–Dirac statistics.
+ *
+ * p = Σ_dir w Σ_branch (1/2π) ∫ k dk [1 − f(E(k))], integrated exactly for E piecewise linear in k²
+ * (see logHoleDensity); the angular quadrature is the caller's (weights of the directions).
+ *
+ * @param args.dispersion k grid (1/nm) and branch energies (eV, absolute) per direction.
+ * @param args.fermiLevel_eV hole quasi-Fermi level, absolute scale (eV).
+ * @param args.temperature_K temperature (K, > 0).
+ * @returns holes per cm².
+ */
+export function holeSheetDensity(args: { readonly dispersion: HoleDispersion; readonly fermiLevel_eV: number; readonly temperature_K: number }): number {
+  checkDispersion(args.dispersion, 'holeSheetDensity.dispersion');
+  checkFinite(args.fermiLevel_eV, 'holeSheetDensity.fermiLevel_eV', 'eV');
+  if (!(args.temperature_K > 0) || !Number.isFinite(args.temperature_K)) fail('holeSheetDensity.temperature_K', 'must be positive and finite (K)', args.temperature_K, 'pass the temperature in kelvin');
+  return Math.exp(logHoleDensity(args.dispersion, args.fermiLevel_eV, KB_EV_PER_K * args.temperature_K));
+}
+
+/**
+ * Hole quasi-Fermi level (eV, absolute) giving a hole sheet density, the inverse of
+ * holeSheetDensity: rootOfIncreasing on ln p(−y) − ln p in y = −F (p falls as F rises).
+ *
+ * @param args.dispersion as for holeSheetDensity.
+ * @param args.density_cm2 hole density (cm⁻², > 0).
+ * @param args.temperature_K temperature (K, > 0).
+ */
+export function holeFermiLevelForDensity(args: { readonly dispersion: HoleDispersion; readonly density_cm2: number; readonly temperature_K: number }): number {
+  checkDispersion(args.dispersion, 'holeFermiLevelForDensity.dispersion');
+  checkDensity(args.density_cm2, 'holeFermiLevelForDensity.density_cm2', 'cm⁻²');
+  if (!(args.temperature_K > 0) || !Number.isFinite(args.temperature_K)) fail('holeFermiLevelForDensity.temperature_K', 'must be positive and finite (K)', args.temperature_K, 'pass the temperature in kelvin');
+  const kT = KB_EV_PER_K * args.temperature_K;
+  let top = -Infinity;
+  for (const dir of args.dispersion.directions) for (const b of dir.branches) top = Math.max(top, b[0]!);
+  const target = Math.log(args.density_cm2);
+  const y = rootOfIncreasing((v) => logHoleDensity(args.dispersion, -v, kT) - target, -top - 5 * kT, -top + 5 * kT, 1e-13 * kT + 4e-16 * Math.abs(top));
+  return -y;
+}
+
+/**
+ * Quasi-Fermi levels for n = p injected per unit area with multiband holes: electrons from their
+ * parabolic subbands (fermiLevelForSheetDensity), holes from the valence dispersions
+ * (holeFermiLevelForDensity). Same conventions and result as quasiFermiLevels.
+ */
+export function quasiFermiLevelsMultiband(args: {
+  readonly electronSubbands: readonly Subband[];
+  readonly holeDispersion: HoleDispersion;
+  readonly sheetDensity_cm2: number;
+  readonly temperature_K: number;
+}): QuasiFermiLevels {
+  const electron = fermiLevelForSheetDensity({ subbands: args.electronSubbands, density_cm2: args.sheetDensity_cm2, temperature_K: args.temperature_K });
+  const hole = holeFermiLevelForDensity({ dispersion: args.holeDispersion, density_cm2: args.sheetDensity_cm2, temperature_K: args.temperature_K });
+  return { electron_eV: electron, hole_eV: hole, separation_eV: electron - hole };
+}

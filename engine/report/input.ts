@@ -8,8 +8,7 @@
  */
 import { InputError } from '../errors.js';
 import { parseSpecText, readInputText, type LoadedSpec } from '../spec/load.js';
-import { settingsOf, solve, solveStructure, type SolveResult } from '../solve.js';
-import { buildStructure } from '../structure.js';
+import { solve, type SolveResult } from '../solve.js';
 import { specFromRecorded } from './recorded.js';
 import { compileTargets, scoreTargets, type Scored } from '../../objectives/index.js';
 import type { Evaluation } from '../../objectives/types.js';
@@ -47,7 +46,7 @@ function resolveRecorded(v: Record<string, unknown>, where: string): SolveResult
   }
   const spec = specFromRecorded(v.structure, v.settings, where);
   try {
-    return solveStructure(buildStructure(spec, {}), settingsOf(spec));
+    return solve(spec, {});
   } catch (e) {
     if (e instanceof InputError) throw new InputError(e.code, `${where}: the recorded structure is not a valid stack: ${e.message}; regenerate the file`, e.field);
     throw e;

@@ -8,6 +8,7 @@ import { buildBandProfile, type BandName } from '../profile.js';
 import { BANDS, type SolveResult } from '../solve.js';
 import { dos2d, dos3d } from '../observables/dos.js';
 import { BAND_COLOURS, BAND_NAMES, PALETTE } from './palette.js';
+import type { ValenceSummary } from '../valence/summary.js';
 
 const SERIES = BANDS.map((b) => BAND_NAMES[b]);
 const COLOURS = BANDS.map((b) => BAND_COLOURS[b]);
@@ -206,5 +207,47 @@ export function dosSpec(r: SolveResult, options: { readonly width?: number; read
       },
     },
     resolve: { scale: { y: 'independent', x: 'independent' } },
+  } as TopLevelSpec;
+}
+
+/**
+ * Valence subband dispersion E(k∥): [100] drawn on the negative k axis and [110] on the positive,
+ * one curve per branch, coloured by the subband's k∥ = 0 character (heavy or light hole; split-off
+ * in ink), with the outer layers' bulk continuum edge dashed. k in 1/nm, energy in eV (absolute).
+ */
+export function valenceDispersionSpec(v: ValenceSummary, options: { readonly width?: number; readonly height?: number } = {}): TopLevelSpec {
+  const kindName = { hh: BAND_NAMES.heavy_hole, lh: BAND_NAMES.light_hole, so: 'split-off' } as const;
+  const rows: { k: number; E: number; series: string; curve: string; i: number }[] = [];
+  const continuum: { k: number; E: number; curve: string; i: number }[] = [];
+  const sideOf = (name: string): number => (name === '[110]' ? 1 : -1);
+  for (const d of v.directions) {
+    const side = sideOf(d.name);
+    for (const s of d.subbands) {
+      s.energy_eV.forEach((branch, b) => {
+        branch.forEach((E, i) => rows.push({ k: side * v.k_per_nm[i]!, E, series: kindName[s.kind], curve: `${d.name}-${s.label}-${b}`, i }));
+      });
+    }
+    d.continuum_eV.forEach((E, i) => continuum.push({ k: side * v.k_per_nm[i]!, E, curve: d.name, i }));
+  }
+  const x = { field: 'k', type: 'quantitative' as const, title: 'k∥ (1/nm): [100] ←  → [110]', scale: { nice: false } };
+  const y = { field: 'E', type: 'quantitative' as const, title: 'energy (eV)', scale: { zero: false } };
+  const colour = { domain: [BAND_NAMES.heavy_hole, BAND_NAMES.light_hole, 'split-off'], range: [BAND_COLOURS.heavy_hole, BAND_COLOURS.light_hole, PALETTE.ink] };
+  return {
+    $schema: 'https://vega.github.io/schema/vega-lite/v6.json',
+    width: options.width ?? 520,
+    height: options.height ?? 360,
+    layer: [
+      { data: { values: [{ k: 0 }] }, mark: { type: 'rule', color: '#d8d8d8' }, encoding: { x } },
+      {
+        data: { values: continuum },
+        mark: { type: 'line', strokeDash: [5, 3], color: PALETTE.sky, strokeWidth: 1.5 },
+        encoding: { x, y, order: { field: 'i' }, detail: { field: 'curve' } },
+      },
+      {
+        data: { values: rows },
+        mark: { type: 'line', strokeWidth: 1.6 },
+        encoding: { x, y, order: { field: 'i' }, detail: { field: 'curve' }, color: { field: 'series', type: 'nominal', title: 'k∥ = 0 character', scale: colour } },
+      },
+    ],
   } as TopLevelSpec;
 }

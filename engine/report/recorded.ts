@@ -113,6 +113,8 @@ export function specFromRecorded(structure: unknown, settings: unknown, where: s
       ...(models.nonparabolicity === undefined ? {} : { nonparabolicity: models.nonparabolicity }),
       ...(models.electronMass === undefined ? {} : { electron_mass: models.electronMass }),
       ...(models.lattice === undefined ? {} : { lattice: models.lattice }),
+      ...(set.valence === undefined ? {} : { valence: set.valence }),
+      ...(set.valenceAxial === undefined ? {} : { valence_axial: set.valenceAxial }),
     },
   };
   try {

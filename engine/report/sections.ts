@@ -11,7 +11,7 @@ import { INTERFACE_HEADER, interfaceRow } from '../cli/solve.js';
 import type { Scored } from '../../objectives/index.js';
 import type { Evaluation } from '../../objectives/types.js';
 import { figureHtml, htmlTable, type Section } from './html.js';
-import { bandDiagramSpec, dosSpec, DIAGRAM_STATES } from './plots.js';
+import { bandDiagramSpec, dosSpec, DIAGRAM_STATES, valenceDispersionSpec } from './plots.js';
 import { renderSvg } from './render.js';
 import type { GrowthSheet } from './growth.js';
 import type { ReportInput } from './input.js';
@@ -41,6 +41,18 @@ export async function bandSection(r: SolveResult, id = 'bands'): Promise<Section
     id, title: 'Band diagram and states',
     lead: 'Band edges versus growth direction z, with |ψ|² of every bound state drawn at its energy (scaled to fit the well; upward for electrons, downward for holes).',
     html: figureHtml(await bandDiagramSvg(r), `Ec, Ehh and Elh (eV, absolute scale of the parameter set) versus z (nm), with the lowest ${DIAGRAM_STATES} states of each band; the table lists all.`),
+  };
+}
+
+/** Valence subband dispersions beside the band diagram, with the DOS-averaged masses. */
+export async function valenceSection(r: SolveResult, id = 'valence'): Promise<Section | null> {
+  const v = r.valence;
+  if (!v) return null;
+  const model = v.model === 'kp4' ? '4×4 Luttinger–Kohn (heavy and light holes)' : '6×6 Luttinger–Kohn (with the split-off band)';
+  return {
+    id, title: 'Valence subbands',
+    lead: `Hole subband dispersions from the ${model} Hamiltonian${v.axial ? ' in the axial approximation' : ''}, Burt–Foreman operator ordering; labels follow each subband's character at k∥ = 0. DOS masses: the parabolic mass holding as many states within 5 meV (or kT) of the subband top, DOS averaged over ${v.dos_average}.`,
+    html: `${figureHtml(await renderSvg(valenceDispersionSpec(v)), 'Energy (eV, absolute scale) versus in-plane wave vector k∥ (1/nm), [100] to the left and [110] to the right; the dashed line is the outer layers\' bulk valence edge (states below it are not confined).')}\n${htmlTable(['subband', 'DOS mass, 5 meV (m0)', 'DOS mass, kT (m0)'], v.dos_mass.map((m) => [m.label, fixed(m.window_5meV_m0, 3), fixed(m.kT_m0, 3)]), [1, 2])}`,
   };
 }
 
@@ -107,7 +119,8 @@ export function growthSection(g: GrowthSheet, id = 'growth'): Section {
 }
 
 async function solveSections(r: SolveResult): Promise<Section[]> {
-  return [structureSection(r), await bandSection(r), statesSection(r), transitionsSection(r), await dosSection(r)];
+  const valence = await valenceSection(r);
+  return [structureSection(r), await bandSection(r), ...(valence ? [valence] : []), statesSection(r), transitionsSection(r), await dosSection(r)];
 }
 
 type Builder<K extends ReportInput['kind']> = (input: Extract<ReportInput, { kind: K }>) => Promise<readonly Section[]>;

@@ -65,6 +65,8 @@ export const solverSchema = z
     nonparabolicity: z.enum(['two-band', 'three-band']).optional().describe('Form of the electron non-parabolicity α: two-band 1/Eg (default) or three-band Kane with the split-off band and the free-electron term'),
     electron_mass: z.enum(['low-temperature', 'kane-temperature']).optional().describe('Electron mass: the tabulated low-temperature value at every T (default), or scaled to T by the Kane inverse mass at Eg(T)'),
     lattice: z.enum(['linear', 'held-below-100K']).optional().describe('Lattice constant versus T: the tabulated linear law at every T (default), or held at its 100 K value below 100 K'),
+    valence: z.enum(['kp4', 'kp6', 'parabolic']).optional().describe('Valence model for the hole dispersions, hole density of states and quasi-Fermi levels: kp4 (heavy and light holes mixed by the 4×4 Luttinger–Kohn Hamiltonian; default), kp6 (with the split-off band) or parabolic (the single-band in-plane masses). Subband edges at k∥ = 0 are the same in all three'),
+    valence_axial: z.boolean().optional().describe('Axial approximation for the valence dispersions (in-plane isotropic); default false: [100] and [110] computed and the DOS averaged over both'),
   })
   .strict();
 

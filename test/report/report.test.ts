@@ -13,8 +13,9 @@ describe('report', () => {
     expect(html).toContain('&lt;script&gt;alert(1)&lt;/script&gt; &amp; well');
     expect(html).not.toMatch(/<script/i);
     expect(html).not.toMatch(/(src|href)="https?:/);
-    expect(html.match(/<svg\b/g)?.length).toBe(2);
-    for (const id of ['targets', 'structure', 'bands', 'states', 'transitions', 'dos', 'growth']) expect(html).toContain(`<section id="${id}">`);
+    // Band diagram, valence dispersion and DOS.
+    expect(html.match(/<svg\b/g)?.length).toBe(3);
+    for (const id of ['targets', 'structure', 'bands', 'valence', 'states', 'transitions', 'dos', 'growth']) expect(html).toContain(`<section id="${id}">`);
     // Axis titles carry units (common practice).
     expect(html).toContain('z (nm)');
     expect(html).toContain('energy (eV)');

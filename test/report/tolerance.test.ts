@@ -40,8 +40,8 @@ describe('tolerance section', () => {
     const html = await buildReport(input);
     expect(html).toContain('<section id="tolerance">');
     expect(html).toContain(yieldText(mc.yield));
-    // Sensitivity bars and one histogram, besides the band diagram and the DOS.
-    expect(html.match(/<svg\b/g)?.length).toBe(4);
+    // Sensitivity bars and one histogram, besides the band diagram, the valence dispersion and the DOS.
+    expect(html.match(/<svg\b/g)?.length).toBe(5);
     expect(html).toContain('impact (window half-widths)');
     expect(html).toContain('e1-hh1 wavelength (nm)');
     expect(html).toContain('Monolayer islands of layer 2 (well)');
