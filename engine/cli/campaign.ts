@@ -13,7 +13,7 @@ import { InputError } from '../errors.js';
 import { RunStore, StoreError } from '../store/store.js';
 import { EXIT, failure, success, type Outcome } from './exit.js';
 import { sig, table, toJson } from './format.js';
-import { writeFileAtomic } from './output.js';
+import { ensureFolder, writeFileAtomic } from './output.js';
 import { progressBar } from './progress.js';
 
 export interface CampaignArgs {
@@ -100,6 +100,7 @@ export async function runCampaignCommand(args: CampaignArgs): Promise<Outcome> {
     if (args.export !== undefined && args.export !== 'csv') throw new InputError('bad-value', `--export: the only format is csv, got ${JSON.stringify(args.export)}`);
     const shard = parseShard(args.shard);
     const campaign = loadCampaignFile(args.file);
+    ensureFolder(out, '--out');
     if (args.slurm !== undefined) return writeSlurm(campaign, args.file, out, args.slurm, args.workers);
     store = RunStore.open(out);
     process.on('SIGINT', onSignal);

@@ -9,7 +9,7 @@ import { solve } from '../solve.js';
 import { runSolve, type SolveArgs } from './solve.js';
 import { InputError } from '../errors.js';
 import { EXIT, failure, success, type Outcome } from './exit.js';
-import { writeFileAtomic } from './output.js';
+import { checkOutputFile, writeFileAtomic } from './output.js';
 
 export interface ReportArgs {
   readonly input: string;
@@ -53,9 +53,11 @@ export const defaultReportPath = (input: string): string => { const trimmed = in
 
 export async function runReport(args: ReportArgs): Promise<Outcome> {
   try {
+    const out = args.out ?? defaultReportPath(args.input);
+    checkOutputFile(out, '--out');
+    if (args.growthSheet !== undefined) checkOutputFile(args.growthSheet, '--growth-sheet');
     const loaded = loadReportInput(args.input);
     const input = args.tolerance ? await withTolerance(loaded, args) : loaded;
-    const out = args.out ?? defaultReportPath(args.input);
     if (args.growthSheet !== undefined) {
       if (input.kind !== 'solve' || input.growth === null) {
         throw new InputError('schema', `--growth-sheet: ${args.input} has no "growth: { rates: … }" section; add the cells' rates to the spec (e.g. GaAs: 1.0 µm/h)`, 'growth');
@@ -82,6 +84,7 @@ export async function runSolvePlot(args: SolveArgs, plot: string): Promise<Outco
     const loaded = loadSpecFile(args.spec);
     locate = loaded.locate;
     if (loaded.spec.wire !== undefined) throw new InputError('schema', `--plot: ${args.spec} describes a wire; the band diagram is drawn for layer stacks only (report draws the wire's maps)`, 'wire');
+    checkOutputFile(plot, '--plot');
     const result = solve(loaded.spec);
     writeFileAtomic(plot, await bandDiagramSvg(result));
     return { ...outcome, stderr: `${outcome.stderr}band diagram written to ${plot}\n` };
