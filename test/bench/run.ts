@@ -1,5 +1,5 @@
 /**
- * `npm run bench [-- --json] [--write] [--filter SUBSTRING]`: runs the entries of
+ * `npm run -s bench [-- --json] [--write] [--filter SUBSTRING]`: runs the entries of
  * test/bench/entries.ts and prints a table (or, with --json, only a JSON array on stdout).
  * Progress and notes go to stderr. Exit 0 when every benchmark ran, 1 when one produced NaN or
  * failed, 2 on a bad argument. --write also saves the JSON to bench-results.json at the repo root.
