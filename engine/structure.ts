@@ -5,9 +5,9 @@
  * starts from this value; it is plain data so it can cross to a worker thread.
  */
 import { InputError } from './errors.js';
-import type { LayerSpec, Spec, VariableSpec } from './spec/schema.js';
+import { repeatOf, type LayerSpec, type Spec, type StackEntry } from './spec/schema.js';
 import { parseField, parseLength, parseTemperature, splitQuantity, parseEnergy, type Length } from './spec/units.js';
-import { alloyFromName, customMaterial, DEFAULT_MODELS, formatFormula, GROUP_III, GROUP_V, parseFormula, resolveMaterial, type Alloy } from '../materials/index.js';
+import { alloyFromName, alloyAt as alloyParamsAt, customMaterial, DEFAULT_MODELS, formatFormula, GROUP_III, GROUP_V, parseMaterialName, resolveMaterial, type Alloy } from '../materials/index.js';
 import type { MaterialModels, ResolvedMaterial } from '../materials/types.js';
 import { nonparabolicity, type NonparabolicityModel } from '../materials/nonparabolicity.js';
 import { staticPermittivity } from '../materials/dielectric.js';
@@ -35,7 +35,14 @@ export type LayerComposition =
 
 export interface ResolvedLayer {
   readonly index: number;
+  /** The layer's label; inside a repeat with its period, e.g. "well[3]" (nested: "well[2.1]"). */
   readonly label: string;
+  /** Where the layer is written in the spec, e.g. "stack[2].repeat[1]" (every period of a repeat shares it). */
+  readonly field: string;
+  /** Top-level repeat this layer belongs to: its stack index and the 1-based period; null outside repeats. */
+  readonly period: { readonly entry: number; readonly period: number; readonly periods: number } | null;
+  /** The vary variable (per period: "w[3]") that sets this layer's thickness, if any. */
+  readonly thicknessVariable: string | null;
   /** Canonical formula ("In0.2Ga0.8As"), "Al0.1→0.3Ga…As" style for graded layers, or the custom name. */
   readonly formula: string;
   readonly composition: LayerComposition;
@@ -92,41 +99,78 @@ export const MAX_TOTAL_NM = 10_000;
 
 /** Kind and unit of a free variable, from the units of its bounds. */
 export interface VariableInfo {
+  /** The name values are keyed by: the vary key, or "w[3]" for period 3 of a per_period variable. */
   readonly name: string;
-  readonly kind: 'length' | 'fraction';
-  /** 'nm' or 'ML' for lengths; '' for fractions. */
-  readonly unit: 'nm' | 'ML' | '';
+  /** 'strain': an in-plane mismatch strain in % (a layer's `strain:`). */
+  readonly kind: 'length' | 'fraction' | 'strain';
+  /** 'nm' or 'ML' for lengths; '%' for strains; '' for fractions. */
+  readonly unit: 'nm' | 'ML' | '%' | '';
   readonly from: number;
   readonly to: number;
   readonly value: number | undefined;
+  /** For a per_period variable: the vary key and the 1-based period. */
+  readonly perPeriod?: { readonly base: string; readonly period: number; readonly periods: number; readonly entry: number };
 }
 
-function variableValue(v: VariableSpec, key: 'from' | 'to' | 'value', name: string): { x: number; unit: 'nm' | 'ML' | '' } {
-  const raw = v[key] as string | number;
+type Unit = VariableInfo['unit'];
+
+function quantityValue(raw: string | number, field: string): { x: number; unit: Unit } {
   const q = splitQuantity(raw);
-  if (!q) throw new InputError('bad-value', `vary.${name}.${key}: expected a number or a length, got ${JSON.stringify(raw)}`, `vary.${name}.${key}`);
+  if (!q) throw new InputError('bad-value', `${field}: expected a number, a length or a strain in %, got ${JSON.stringify(raw)}`, field);
   if (q.unit === '') return { x: q.value, unit: '' };
+  if (q.unit === '%') return { x: q.value, unit: '%' };
   const len = parseLength(raw);
-  if (typeof len === 'string') throw new InputError('bad-value', `vary.${name}.${key}: ${len}`, `vary.${name}.${key}`);
+  if (typeof len === 'string') throw new InputError('bad-value', `${field}: ${len}`, field);
   return 'ml' in len ? { x: len.ml, unit: 'ML' } : { x: len.nm, unit: 'nm' };
 }
 
-/** The spec's free variables with their kinds and bounds, in declaration order. */
+/** Top-level repeats that list variables under per_period: variable -> (stack index, periods). */
+function perPeriodBlocks(spec: Spec): Map<string, { entry: number; periods: number }> {
+  const out = new Map<string, { entry: number; periods: number }>();
+  spec.stack.forEach((entry, i) => {
+    const e = repeatOf(entry);
+    for (const [k, name] of (e?.per_period ?? []).entries()) {
+      const field = `stack[${i}].per_period[${k}]`;
+      if (spec.vary?.[name] === undefined) throw new InputError('unknown-variable', `${field}: "${name}" is not a vary variable; declare it under "vary:" with bounds`, field);
+      const other = out.get(name);
+      if (other) throw new InputError('bad-value', `${field}: "${name}" is already per period in stack[${other.entry}]; give each repeat its own variable`, field);
+      out.set(name, { entry: i, periods: e!.periods });
+    }
+  });
+  return out;
+}
+
+/**
+ * The spec's free variables with their kinds and bounds, in declaration order; a per_period
+ * variable of a repeat of N periods becomes N variables w[1] … w[N] with the same bounds.
+ */
 export function variablesOf(spec: Spec): readonly VariableInfo[] {
-  return Object.entries(spec.vary ?? {}).map(([name, v]) => {
-    const from = variableValue(v, 'from', name);
-    const to = variableValue(v, 'to', name);
-    const value = v.value === undefined ? undefined : variableValue(v, 'value', name);
+  const blocks = perPeriodBlocks(spec);
+  return Object.entries(spec.vary ?? {}).flatMap(([name, v]): VariableInfo[] => {
+    const from = quantityValue(v.from, `vary.${name}.from`);
+    const to = quantityValue(v.to, `vary.${name}.to`);
+    const block = blocks.get(name);
+    const rawValues = v.value === undefined ? undefined : Array.isArray(v.value) ? v.value : [v.value];
+    if (rawValues && rawValues.length > 1 && rawValues.length !== (block?.periods ?? 1)) {
+      throw new InputError('bad-value', `vary.${name}.value: a list gives one value per period, got ${rawValues.length} value${rawValues.length > 1 ? 's' : ''}${block ? ` for ${block.periods} periods` : ` for a variable that is not per_period`}; ${block ? `give ${block.periods} values or one shared value` : 'give one value, or list the variable under per_period of its repeat'}`, `vary.${name}.value`);
+    }
+    const values = rawValues?.map((x, k) => quantityValue(x, Array.isArray(v.value) ? `vary.${name}.value[${k}]` : `vary.${name}.value`));
     const unit = from.unit;
-    if (to.unit !== unit || (value && value.unit !== unit)) {
-      throw new InputError('bad-value', `vary.${name}: bounds and value must share one unit, got "${v.from}", "${v.to}"${v.value !== undefined ? `, "${v.value}"` : ''}; write all in nm, all in ML or all as fractions`, `vary.${name}`);
+    if (to.unit !== unit || values?.some((x) => x.unit !== unit)) {
+      throw new InputError('bad-value', `vary.${name}: bounds and value must share one unit, got "${v.from}", "${v.to}"${v.value !== undefined ? `, ${JSON.stringify(v.value)}` : ''}; write all in nm, all in ML, all in % or all as fractions`, `vary.${name}`);
     }
     if (!(from.x < to.x)) throw new InputError('bad-value', `vary.${name}: "from" must be below "to", got ${v.from} and ${v.to}; swap them`, `vary.${name}`);
-    if (value && (value.x < from.x || value.x > to.x)) throw new InputError('bad-value', `vary.${name}.value: ${v.value} lies outside [${v.from}, ${v.to}]; move it inside or widen the bounds`, `vary.${name}.value`);
-    const kind = unit === '' ? 'fraction' : 'length';
+    for (const x of values ?? []) {
+      if (x.x < from.x || x.x > to.x) throw new InputError('bad-value', `vary.${name}.value: ${JSON.stringify(v.value)} lies outside [${v.from}, ${v.to}]; move it inside or widen the bounds`, `vary.${name}.value`);
+    }
+    const kind = unit === '' ? 'fraction' : unit === '%' ? 'strain' : 'length';
     if (kind === 'fraction' && (from.x < 0 || to.x > 1)) throw new InputError('bad-value', `vary.${name}: a fraction must lie in [0, 1], got [${from.x}, ${to.x}]; give lengths a unit (nm, Å or ML)`, `vary.${name}`);
     if (kind === 'length' && from.x <= 0) throw new InputError('bad-value', `vary.${name}.from: a thickness must be positive, got ${v.from}`, `vary.${name}.from`);
-    return { name, kind, unit, from: from.x, to: to.x, value: value?.x };
+    if (!block) return [{ name, kind, unit, from: from.x, to: to.x, value: values?.[0]?.x }];
+    return Array.from({ length: block.periods }, (_, k) => ({
+      name: `${name}[${k + 1}]`, kind, unit, from: from.x, to: to.x, value: (values?.[k] ?? values?.[0])?.x,
+      perPeriod: { base: name, period: k + 1, periods: block.periods, entry: block.entry },
+    }));
   });
 }
 
@@ -134,24 +178,72 @@ export function variablesOf(spec: Spec): readonly VariableInfo[] {
 export function nominalVariables(spec: Spec): Record<string, number> {
   const out: Record<string, number> = {};
   for (const v of variablesOf(spec)) {
-    if (v.value === undefined) throw new InputError('unknown-variable', `vary.${v.name}: has no value to solve at; add "value:" inside its bounds, or run "wellsmith design" to choose it`, `vary.${v.name}`);
+    const key = v.perPeriod?.base ?? v.name;
+    if (v.value === undefined) throw new InputError('unknown-variable', `vary.${key}: has no value to solve at; add "value:" inside its bounds, or run "wellsmith design" to choose it`, `vary.${key}`);
     out[v.name] = v.value;
   }
   return out;
 }
 
-const RESERVED = new Set(['material', 'thickness', 'label']);
+const RESERVED = new Set(['material', 'thickness', 'label', 'strain']);
 
-function lookupVariable(name: string, vars: readonly VariableInfo[], values: Readonly<Record<string, number>>, field: string, want: VariableInfo['kind']): { value: number; info: VariableInfo } {
+function lookupVariable(written: string, vars: readonly VariableInfo[], values: Readonly<Record<string, number>>, field: string, want: VariableInfo['kind'], rename: Readonly<Record<string, string>>): { value: number; info: VariableInfo } {
+  const name = rename[written] ?? written;
   const info = vars.find((v) => v.name === name);
   if (!info) {
-    const known = vars.map((v) => v.name).join(', ');
-    throw new InputError('unknown-variable', `${field}: unknown variable "${name}"; ${known ? `declared variables are ${known}` : 'declare it under "vary:" with bounds'}`, field);
+    const perPeriod = vars.find((v) => v.perPeriod?.base === written);
+    if (perPeriod) throw new InputError('bad-value', `${field}: variable "${written}" takes one value per period of the repeat at stack[${perPeriod.perPeriod!.entry}] (per_period); use it inside that repeat only, or declare another variable here`, field);
+    const known = [...new Set(vars.map((v) => v.perPeriod?.base ?? v.name))].join(', ');
+    throw new InputError('unknown-variable', `${field}: unknown variable "${written}"; ${known ? `declared variables are ${known}` : 'declare it under "vary:" with bounds'}`, field);
   }
-  if (info.kind !== want) throw new InputError('bad-value', `${field}: variable "${name}" is a ${info.kind} but a ${want} is needed here; give it ${want === 'length' ? 'bounds with a unit (nm or ML)' : 'bounds without a unit'}`, field);
+  if (info.kind !== want) {
+    const how: Readonly<Record<VariableInfo['kind'], string>> = { length: 'bounds with a unit (nm or ML)', fraction: 'bounds without a unit', strain: 'bounds in % (e.g. from: -1.5 %)' };
+    throw new InputError('bad-value', `${field}: variable "${written}" is a ${info.kind} but a ${want} is needed here; give it ${how[want]}`, field);
+  }
   const value = values[name];
-  if (value === undefined || !Number.isFinite(value)) throw new InputError('unknown-variable', `${field}: variable "${name}" has no value; give vary.${name}.value or solve a design`, field);
+  if (value === undefined || !Number.isFinite(value)) throw new InputError('unknown-variable', `${field}: variable "${name}" has no value; give vary.${written}.value or solve a design`, field);
   return { value, info };
+}
+
+
+/** One layer as grown: repeat blocks written out period by period. */
+export interface StackLayer {
+  readonly layer: LayerSpec;
+  /** Where it is written, e.g. "stack[2].repeat[1]"; errors name its fields from here. */
+  readonly field: string;
+  /** Its label with the period(s) ("well[3]", nested "well[2.1]"), or undefined when unlabelled. */
+  readonly label: string | undefined;
+  readonly period: ResolvedLayer['period'];
+  /** Per-period variable names of this period: "w" -> "w[3]". */
+  readonly rename: Readonly<Record<string, string>>;
+}
+
+/**
+ * The stack with its repeat blocks written out: each period's layers in order, labels carrying
+ * the period ("well" in period 3 -> "well[3]"; in period 1 of an inner repeat of period 2 ->
+ * "well[2.1]"), per_period variables renamed to their period's ("w" -> "w[3]").
+ */
+export function expandStack(spec: Spec): readonly StackLayer[] {
+  const out: StackLayer[] = [];
+  const walk = (entries: readonly StackEntry[], base: string, periods: readonly number[], top: { entry: number; period: number; periods: number } | null, rename: Readonly<Record<string, string>>): void => {
+    entries.forEach((entry, i) => {
+      const field = `${base}[${i}]`;
+      const e = repeatOf(entry);
+      if (e === null) {
+        const layer = entry as LayerSpec;
+        const label = layer.label === undefined ? undefined : periods.length ? `${layer.label}[${periods.join('.')}]` : layer.label;
+        out.push({ layer, field, label, period: top, rename });
+        return;
+      }
+      for (let k = 1; k <= e.periods; k++) {
+        const isTop = top === null;
+        const names = isTop ? Object.fromEntries((e.per_period ?? []).map((n) => [n, `${n}[${k}]`])) : rename;
+        walk(e.repeat, `${field}.repeat`, [...periods, k], isTop ? { entry: i, period: k, periods: e.periods } : top, names);
+      }
+    });
+  };
+  walk(spec.stack, 'stack', [], null, {});
+  return out;
 }
 
 interface Context {
@@ -160,15 +252,21 @@ interface Context {
   readonly values: Readonly<Record<string, number>>;
   readonly temperature_K: number;
   readonly substrate: Alloy | null;
+  readonly models: StructureModels;
 }
 
-function compositionOf(layer: LayerSpec, i: number, ctx: Context): LayerComposition {
-  const field = `stack[${i}]`;
+function compositionOf(at: StackLayer, ctx: Context): LayerComposition {
+  const { layer, field, rename } = at;
   const custom = ctx.spec.materials?.[layer.material];
   const fractionKeys = Object.keys(layer).filter((k) => !RESERVED.has(k));
   if (custom) {
-    if (fractionKeys.length > 0) throw new InputError('bad-value', `${field}.${fractionKeys[0]}: custom material "${layer.material}" takes no fractions; remove it`, `${field}.${fractionKeys[0]}`);
+    const extra = fractionKeys[0] ?? (layer.strain !== undefined ? 'strain' : undefined);
+    if (extra) throw new InputError('bad-value', `${field}.${extra}: custom material "${layer.material}" takes no ${extra === 'strain' ? 'strain' : 'fractions'}; remove it`, `${field}.${extra}`);
     return { kind: 'custom', name: layer.material };
+  }
+  if (layer.strain !== undefined) {
+    if (fractionKeys.length > 0) throw new InputError('bad-value', `${field}.${fractionKeys[0]}: a layer given by its strain takes no fractions (the strain sets the free one); remove it or the strain`, `${field}.${fractionKeys[0]}`);
+    return { kind: 'alloy', alloy: alloyForStrain(layer.material, strainOf(layer.strain, at, ctx), ctx, `${field}.strain`) };
   }
   if (fractionKeys.length === 0) return { kind: 'alloy', alloy: parseFormulaAt(layer.material, `${field}.material`) };
   const start: Record<string, number> = {};
@@ -180,7 +278,7 @@ function compositionOf(layer: LayerSpec, i: number, ctx: Context): LayerComposit
     let a: number;
     let b: number;
     if (typeof raw === 'number') a = b = raw;
-    else if (typeof raw === 'string') a = b = lookupVariable(raw, ctx.vars, ctx.values, f, 'fraction').value;
+    else if (typeof raw === 'string') a = b = lookupVariable(raw, ctx.vars, ctx.values, f, 'fraction', rename).value;
     else {
       const g = raw as { from: number; to: number };
       a = g.from; b = g.to; graded = true;
@@ -193,6 +291,56 @@ function compositionOf(layer: LayerSpec, i: number, ctx: Context): LayerComposit
   if (!graded) return { kind: 'alloy', alloy: from };
   return { kind: 'graded', from, to: alloyAt(layer.material, end, `${field}.material`) };
 }
+
+/** A layer's `strain:` as a fraction (not %): a quantity in % or a strain variable. */
+function strainOf(raw: string | number, at: StackLayer, ctx: Context): number {
+  const field = `${at.field}.strain`;
+  const q = splitQuantity(raw);
+  if (q && q.unit === '%') return q.value / 100;
+  if (typeof raw === 'string' && !q && /^[A-Za-z_][A-Za-z0-9_]*$/.test(raw.trim())) return lookupVariable(raw.trim(), ctx.vars, ctx.values, field, 'strain', at.rename).value / 100;
+  throw new InputError('bad-value', `${field}: expected a strain in % such as "-1 %" (negative is compressive) or a vary variable in %, got ${JSON.stringify(raw)}`, field);
+}
+
+/**
+ * The ternary of `name` (InGaAs, GaAsP…: one side mixed from two elements) whose in-plane strain
+ * on the substrate is `strain`, at the structure's temperature. The lattice constant is linear in
+ * the fraction (Vegard; materials/alloys.ts), so ε∥ = (a_sub − a)/a gives a = a_sub/(1 + ε) and
+ * the fraction in closed form.
+ */
+function alloyForStrain(name: string, strain: number, ctx: Context, field: string): Alloy {
+  if (!ctx.substrate) throw new InputError('bad-value', `${field}: a strain needs a substrate to be strained on; give "substrate:"`, field);
+  const { side, first, second } = mixedSide(name, field);
+  const end = (el: string): Alloy => {
+    const other = side === 'III' ? ternaryOther(name, 'V') : ternaryOther(name, 'III');
+    return side === 'III' ? { III: { [el]: 1 }, V: { [other]: 1 } } : { III: { [other]: 1 }, V: { [el]: 1 } };
+  };
+  const lattice = (a: Alloy): number => alloyParamsAt(a, ctx.temperature_K, ctx.models.lattice).a_nm;
+  const aSub = lattice(ctx.substrate);
+  const aA = lattice(end(first));
+  const aB = lattice(end(second));
+  const x = (aSub / (1 + strain) - aB) / (aA - aB);
+  if (!(x >= 0 && x <= 1)) {
+    const eps = (a: number): string => ((aSub - a) / a * 100).toFixed(2);
+    throw new InputError('bad-value', `${field}: ${(strain * 100).toPrecision(3)} % is out of reach of ${name} on ${formatFormula(ctx.substrate)} (from ${eps(aB)} % to ${eps(aA)} %); choose a strain in that range or another alloy`, field);
+  }
+  return withField(field, () => alloyFromName(name, { [first]: x }));
+}
+
+/** The mixed side of a ternary name and its two elements, in the name's order; InputError otherwise. */
+function mixedSide(name: string, field: string): { side: 'III' | 'V'; first: string; second: string } {
+  const els = name.match(/[A-Z][a-z]?/g) ?? [];
+  const III = els.filter((e) => (GROUP_III as readonly string[]).includes(e));
+  const V = els.filter((e) => (GROUP_V as readonly string[]).includes(e));
+  if (els.length === 3 && III.length + V.length === 3 && /^([A-Z][a-z]?)+$/.test(name.trim())) {
+    if (III.length === 2) return { side: 'III', first: III[0]!, second: III[1]! };
+    if (V.length === 2) return { side: 'V', first: V[0]!, second: V[1]! };
+  }
+  throw new InputError('bad-value', `${field}: a strain sets the free fraction of a ternary named without numbers (InGaAs, GaAsP, InAsP…), got material "${name}"; write such a name or give the fractions instead`, field);
+}
+
+/** The single element of a ternary name's unmixed side. */
+const ternaryOther = (name: string, side: 'III' | 'V'): string =>
+  (name.match(/[A-Z][a-z]?/g) ?? []).find((e) => ((side === 'III' ? GROUP_III : GROUP_V) as readonly string[]).includes(e))!;
 
 function withField<T>(field: string, f: () => T): T {
   try {
@@ -219,7 +367,7 @@ function memo<V>(table: Map<string, V>, key: string, make: () => V): V {
 }
 const formulas = new Map<string, Alloy>();
 
-const parseFormulaAt = (text: string, field: string): Alloy => memo(formulas, text, () => withField(field, () => parseFormula(text)));
+const parseFormulaAt = (text: string, field: string): Alloy => memo(formulas, text, () => withField(field, () => parseMaterialName(text)));
 const alloyAt = (name: string, fractions: Record<string, number>, field: string): Alloy => withField(field, () => alloyFromName(name, fractions));
 
 /** Mixes two alloys linearly: the composition at fraction t of a graded layer. */
@@ -368,6 +516,8 @@ interface LayerPart {
  */
 interface SpecCache {
   readonly vars: readonly VariableInfo[];
+  /** The stack with repeats written out. */
+  readonly layers: readonly StackLayer[];
   readonly parts: Map<string, LayerPart>;
   /** Substrate and offset rule at each temperature. */
   readonly settings: Map<string, Setting>;
@@ -383,7 +533,7 @@ const specCaches = new WeakMap<Spec, SpecCache>();
 function cacheOf(spec: Spec): SpecCache {
   let c = specCaches.get(spec);
   if (!c) {
-    c = { vars: variablesOf(spec), parts: new Map(), settings: new Map() };
+    c = { vars: variablesOf(spec), layers: expandStack(spec), parts: new Map(), settings: new Map() };
     specCaches.set(spec, c);
   }
   return c;
@@ -405,9 +555,12 @@ function settingOf(spec: Spec, temperature_K: number): Setting {
   return { substrate, reference, offsetRule: { kind: 'conduction-share', share, reference: reference.formula, gap } };
 }
 
-/** Whether a layer's composition depends on a free variable (a fraction that names one). */
+/** Whether a layer's composition depends on a free variable (a fraction or a strain that names one). */
 const namesVariable = (layer: LayerSpec): boolean =>
-  Object.keys(layer).some((k) => !RESERVED.has(k) && typeof (layer as Record<string, unknown>)[k] === 'string');
+  Object.keys(layer).some((k) => (k === 'strain' || !RESERVED.has(k)) && typeof (layer as Record<string, unknown>)[k] === 'string' && !(k === 'strain' && splitQuantity(layer.strain!)));
+
+/** The layers of a spec as grown (repeats written out), from the spec's cache. */
+export const stackLayers = (spec: Spec): readonly StackLayer[] => cacheOf(spec).layers;
 
 /**
  * Builds the Structure of a spec at the given variable values, optionally with growth errors.
@@ -425,7 +578,7 @@ export function buildStructure(spec: Spec, values: Readonly<Record<string, numbe
   if (!(Math.abs(field_kV_per_cm) <= MAX_FIELD_KV_PER_CM)) throw new InputError('bad-value', `field: ${spec.field} is beyond ±${MAX_FIELD_KV_PER_CM} kV/cm, above the breakdown field of these materials; give a field below it`, 'field');
   const { substrate, reference, offsetRule } = memo(cache.settings, String(temperature_K), () => settingOf(spec, temperature_K));
   const models = modelsOf(spec);
-  const ctx: Context = { spec, vars, values, temperature_K, substrate };
+  const ctx: Context = { spec, vars, values, temperature_K, substrate, models };
 
   const bandsOf = (source: Alloy | string, field: string): { bands: LayerBands; material: ResolvedMaterial } => {
     const m = resolveComposition(spec, source, temperature_K, typeof source === 'string' ? null : substrate, field);
@@ -442,8 +595,7 @@ export function buildStructure(spec: Spec, values: Readonly<Record<string, numbe
     return { material: m, bands: { Ec, Ehh, Elh, me: m.me, mhh_z: m.mhh_z, mlh_z: m.mlh_z, mhh_par: m.mhh_par, mlh_par: m.mlh_par, alpha } };
   };
 
-  const partOf = (composition: LayerComposition, i: number): LayerPart => {
-    const field = `stack[${i}]`;
+  const partOf = (composition: LayerComposition, field: string): LayerPart => {
     const mid = composition.kind === 'custom' ? composition.name : composition.kind === 'alloy' ? composition.alloy : mixAlloys(composition.from, composition.to, 0.5);
     const centre = bandsOf(mid, `${field}.material`);
     const bands = composition.kind === 'graded'
@@ -456,16 +608,18 @@ export function buildStructure(spec: Spec, values: Readonly<Record<string, numbe
   };
 
   let total = 0;
-  const layers = spec.stack.map((layer, i): ResolvedLayer => {
-    const field = `stack[${i}]`;
+  // Every period of a repeat shares its written layer's part (memo keyed by the written field), so a
+  // repeated stack resolves to the same numbers as its layers written out.
+  const layers = cache.layers.map((at, i): ResolvedLayer => {
+    const { layer, field } = at;
     const dx = perturbation.composition?.[i] ?? 0;
     let part: LayerPart;
-    if (namesVariable(layer)) part = partOf(perturbComposition(compositionOf(layer, i, ctx), dx), i);
+    if (namesVariable(layer)) part = partOf(perturbComposition(compositionOf(at, ctx), dx), field);
     else {
-      const base = memo(cache.parts, `${i}@${temperature_K}`, () => partOf(compositionOf(layer, i, ctx), i));
+      const base = memo(cache.parts, `${field}@${temperature_K}`, () => partOf(compositionOf(at, ctx), field));
       // A composition error leaves binaries and custom materials as they are.
       const composition = perturbComposition(base.composition, dx);
-      part = composition === base.composition ? base : partOf(composition, i);
+      part = composition === base.composition ? base : partOf(composition, field);
     }
     const { composition, formula, material, permittivity, bands } = part;
 
@@ -473,9 +627,11 @@ export function buildStructure(spec: Spec, values: Readonly<Record<string, numbe
     const t = layer.thickness;
     const tq = splitQuantity(t);
     const isName = typeof t === 'string' && !tq && /^[A-Za-z_][A-Za-z0-9_]*$/.test(t.trim());
+    let thicknessVariable: string | null = null;
     if (isName) {
-      const { value, info } = lookupVariable((t as string).trim(), vars, ctx.values, `${field}.thickness`, 'length');
+      const { value, info } = lookupVariable((t as string).trim(), vars, ctx.values, `${field}.thickness`, 'length', at.rename);
       length = info.unit === 'ML' ? { ml: value } : { nm: value };
+      thicknessVariable = info.name;
     } else {
       const parsed = parseLength(t);
       if (typeof parsed === 'string') throw new InputError('bad-value', `${field}.thickness: ${parsed}, or the name of a vary variable`, `${field}.thickness`);
@@ -493,7 +649,10 @@ export function buildStructure(spec: Spec, values: Readonly<Record<string, numbe
     if (total > MAX_TOTAL_NM) throw new InputError('bad-value', `${field}.thickness: the stack reaches ${total.toPrecision(4)} nm, above the ${MAX_TOTAL_NM / 1000} µm an envelope-function solve handles here; model only the active region (the outer layers continue outwards)`, `${field}.thickness`);
     return {
       index: i,
-      label: layer.label ?? `layer ${i + 1}`,
+      label: at.label ?? `layer ${i + 1}`,
+      field,
+      period: at.period,
+      thicknessVariable,
       formula,
       composition,
       thickness_nm,

@@ -11,3 +11,5 @@ export { electronMassAtGap, holeMasses, kaneInverseMass, type HoleMasses } from 
 export { nonparabolicity, type NonparabolicityInput, type NonparabolicityModel } from './nonparabolicity.js';
 export { DEFAULT_MODELS, customMaterial, resolveMaterial, type CustomMaterialDef } from './resolve.js';
 export type { BinaryParams, ElectronMassModel, GapLaw, LatticeModel, MaterialModels, ResolvedMaterial } from './types.js';
+export { NAMED_GAP_TEMPERATURE_K, latticeMatchedByWavelength, parseMaterialName } from './quaternary.js';
+export { balancingThickness, biaxialStiffness, netStrain, worstStrainRun, zeroStressLattice, type StrainLayer, type StrainRun } from './strain-balance.js';

@@ -82,6 +82,9 @@ export interface ResolvedMaterial {
   readonly strain_perp: number;
   /** Lattice mismatch (a − a_sub)/a_sub; 0 when unstrained. */
   readonly mismatch: number;
+  /** Elastic constants (GPa) of the layer, for strain balance; NaN for a custom material. */
+  readonly C11: number;
+  readonly C12: number;
   /** Matthews–Blakeslee critical thickness (nm); Infinity when lattice-matched or unstrained. */
   readonly criticalThickness_nm: number;
   /** One (001) monolayer of the strained layer: a⊥/2 (nm). */

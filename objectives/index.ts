@@ -1,6 +1,7 @@
 /**
  * The registry of target kinds. A spec's `targets:` entries are dispatched by their key
- * (transition, subband_edge, spacing, bound_states, at_barrier_edge, maximize, constraint),
+ * (transition, subband_edge, spacing, bound_states, at_barrier_edge, splitting, ensemble, strain,
+ * transparency, maximize, constraint),
  * validated by that kind's schema, and combined by weights into one loss Σ w·r².
  */
 import { InputError } from '../engine/errors.js';
@@ -14,6 +15,10 @@ import { boundStatesObjective } from './bound-states.js';
 import { barrierEdgeObjective } from './barrier-edge.js';
 import { figureObjective } from './figure.js';
 import { constraintObjective } from './constraints.js';
+import { ensembleObjective } from './ensemble.js';
+import { splittingObjective } from './splitting.js';
+import { strainObjective } from './strain.js';
+import { transparencyObjective } from './transparency.js';
 
 /** Type-erased entry: the objective only ever sees targets its own schema has parsed. */
 const entry = <T>(key: string, objective: Objective<T>): { readonly key: string; readonly objective: Objective<unknown> } =>
@@ -27,6 +32,10 @@ export const OBJECTIVES: readonly { readonly key: string; readonly objective: Ob
   entry('spacing', spacingObjective),
   entry('bound_states', boundStatesObjective),
   entry('at_barrier_edge', barrierEdgeObjective),
+  entry('splitting', splittingObjective),
+  entry('ensemble', ensembleObjective),
+  entry('strain', strainObjective),
+  entry('transparency', transparencyObjective),
   entry('transition', transitionObjective),
 ];
 

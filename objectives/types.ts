@@ -12,6 +12,8 @@ export interface TargetState {
   readonly energy_eV: number;
   readonly confinement_meV: number;
   readonly bound: boolean;
+  /** Probability-weighted in-plane mass (m0) of a stack's state; NaN when wavefunctions were not sampled. */
+  readonly mass_inplane?: number;
 }
 
 export interface TargetBand {
@@ -35,8 +37,17 @@ export interface TargetTransition {
 /** Layer data the grower's constraints read; a wire has none (constraints are refused for it at compile time). */
 export interface TargetLayer {
   readonly index: number;
+  /** Label as resolved ("well[3]" inside a repeat). */
+  readonly label: string;
   readonly thickness_nm: number;
-  readonly material: { readonly criticalThickness_nm: number; readonly EgG: number; readonly EgX: number; readonly EgL: number };
+  readonly formula: string;
+  /** Conduction edge at the layer's samples (the first is enough to find wells). */
+  readonly bands: readonly { readonly Ec: number }[];
+  readonly material: {
+    readonly criticalThickness_nm: number; readonly EgG: number; readonly EgX: number; readonly EgL: number;
+    /** Relaxed lattice (nm), in-plane strain and elastic constants (GPa), for the stack's strain checks. */
+    readonly a_nm: number; readonly strain_par: number; readonly C11: number; readonly C12: number;
+  };
 }
 
 /**
@@ -46,7 +57,9 @@ export interface TargetLayer {
 export interface TargetSource {
   readonly bands: Readonly<Record<BandName, TargetBand>>;
   readonly transitions: readonly TargetTransition[];
-  readonly structure: { readonly temperature_K: number; readonly layers?: readonly TargetLayer[]; readonly total_nm?: number };
+  readonly structure: { readonly temperature_K: number; readonly layers?: readonly TargetLayer[]; readonly total_nm?: number; readonly substrate?: string | null };
+  /** Sampled wavefunctions of a layer stack (z = 0 at the first layer's start), when the solve sampled them. */
+  readonly wavefunctions?: { readonly z_nm: Float64Array; readonly psi: Readonly<Record<BandName, readonly Float64Array[]>> };
 }
 
 /** What a spec solves: a layer stack or a wire cross-section (some targets apply to one only). */

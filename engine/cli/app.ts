@@ -63,10 +63,11 @@ export async function cli(argv: string[]): Promise<Outcome> {
         .option('ml-sigma', { type: 'number', describe: 'Monte Carlo: per-layer monolayer σ (ML, rounded to whole ML); replaces --ml' })
         .option('x-sigma', { type: 'number', default: DEFAULT_TOLERANCE.growth.compositionSigma, describe: 'Monte Carlo: alloy-fraction σ per layer' })
         .option('rate-sigma', { type: 'number', default: DEFAULT_TOLERANCE.growth.rateSigmaPercent, describe: 'Monte Carlo: growth-rate σ (%)' })
+        .option('periods', { type: 'string', choices: ['independent', 'correlated'], default: 'independent', describe: 'Monte Carlo: growth errors of repeated periods drawn independently, or one draw repeated in every period' })
         .option('json', { type: 'boolean', default: false, describe: 'machine-readable output on stdout' }),
     async (a) => {
       outcome = await runTolerance({ spec: a.spec!, samples: a.samples, seed: a.seed, workers: a.workers, dx: a.dx, rate: a.rate, dT: a.dT,
-        mlTable: a.ml, mlSigma: a['ml-sigma'], xSigma: a['x-sigma'], rateSigma: a['rate-sigma'], json: a.json });
+        mlTable: a.ml, mlSigma: a['ml-sigma'], xSigma: a['x-sigma'], rateSigma: a['rate-sigma'], periods: a.periods, json: a.json });
     })
     .command('report <input>', 'self-contained HTML report of a spec, a design, a solve/design/tolerance --json file or a campaign run folder', (y) =>
       y.positional('input', { type: 'string', demandOption: true, describe: 'spec file (solved, targets scored) or a JSON file from solve/design --json' })

@@ -2,6 +2,7 @@
 import { readdirSync, rmSync } from 'node:fs';
 import { join } from 'node:path';
 import { describeObjectives } from '../../objectives/index.js';
+import { stateWells } from '../../objectives/wells.js';
 import { defaultDesignOptions, design, type Design, type DesignResult } from '../design/search.js';
 import { isWireSolve } from '../design/problem.js';
 import { wireJson } from '../wire/describe.js';
@@ -39,7 +40,7 @@ export const ROBUST_SAMPLES = 200;
 export const TARGET_HELP = `Target kinds (under "targets:" in the spec):\n${describeObjectives()}`;
 
 const variableCell = (v: Design['variables'][number]): string =>
-  v.kind === 'fraction' ? v.value.toFixed(3) : `${fixed(v.nm, 3)} nm / ${fixed(v.ml, 1)} ML`;
+  v.kind === 'fraction' ? v.value.toFixed(3) : v.kind === 'strain' ? `${v.value.toFixed(2)} %` : `${fixed(v.nm, 3)} nm / ${fixed(v.ml, 1)} ML`;
 
 const achievedCell = (e: Design['evaluations'][number]): string =>
   e.achieved === null ? 'missing' : `${sig(e.achieved, 6)}${e.unit ? ` ${e.unit}` : ''}`;
@@ -67,8 +68,11 @@ export function designJson(r: DesignResult): unknown {
       variables: d.variables,
       targets: d.evaluations,
       critical_thickness_margin: d.criticalMargin,
+      preferences: d.preferences,
       start: d.start,
       ...((isWireSolve(d.result) ? wireJson(d.result, false) : solveJson(d.result, false)) as object),
+      // States of a multi-well stack by the well they live in (objectives/wells.ts).
+      ...(isWireSolve(d.result) ? {} : { state_wells: stateWells(d.result) }),
     })),
   };
 }
@@ -78,12 +82,13 @@ export function describeDesign(r: DesignResult, spec: Spec): string {
   if (!first) return `status: ${r.status}: ${r.message}`;
   // A wire's strain is not modelled, so it has no critical-thickness margin to show.
   const margin = !isWireSolve(first.result);
-  const header = ['rank', ...first.variables.map((v) => (v.kind === 'fraction' ? v.name : `${v.name} (nm / ML)`)),
-    ...first.evaluations.map((e) => e.label), 'loss', ...(margin ? ['h_c margin'] : [])];
+  const header = ['rank', ...first.variables.map((v) => (v.kind === 'length' ? `${v.name} (nm / ML)` : v.name)),
+    ...first.evaluations.map((e) => e.label), 'loss', ...(margin ? ['h_c margin'] : []), ...first.preferences.map((p) => `${p.label}${p.unit ? ` (${p.unit})` : ''}`)];
   const rows = r.designs.map((d) => [String(d.rank), ...d.variables.map((v) => `${variableCell(v)}${v.atBound ? ` (${v.atBound} bound)` : ''}`),
     ...d.evaluations.map(evaluationCell),
-    sig(d.loss, 3), ...(margin ? [`${fixed(d.criticalMargin * 100, 0)} %`] : [])]);
-  const lines = [spec.title ? `${spec.title}\n` : '', `Designs (${r.starts} starts, seed ${r.seed}, ${r.evaluations} solves${r.failures ? `, ${r.failures} failed candidates` : ''}); residuals in window half-widths, |r| ≤ 1 meets the target`, table(header, rows)];
+    sig(d.loss, 3), ...(margin ? [`${fixed(d.criticalMargin * 100, 0)} %`] : []), ...d.preferences.map((p) => sig(p.value, 4))]);
+  const order = first.preferences.length ? `; designs meeting every target ranked by ${first.preferences.map((p) => p.label).join(', then ')} (lexicographic, within each one's tie), then loss` : '';
+  const lines = [spec.title ? `${spec.title}\n` : '', `Designs (${r.starts} starts, seed ${r.seed}, ${r.evaluations} solves${r.failures ? `, ${r.failures} failed candidates` : ''}); residuals in window half-widths, |r| ≤ 1 meets the target${order}`, table(header, rows)];
   if (r.status !== 'ok') {
     const bound = first.variables.filter((v) => v.atBound).map((v) => `${v.name} at its ${v.atBound} bound`);
     const missed = first.evaluations.filter((e) => !e.satisfied).map((e) => `${e.label}: closest ${achievedCell(e)} (goal ${e.goal === null ? '–' : sig(e.goal, 6)} ${e.unit})`);
@@ -93,12 +98,12 @@ export function describeDesign(r: DesignResult, spec: Spec): string {
 }
 
 function writeOutputs(dir: string, r: DesignResult, spec: Spec, args: DesignArgs): void {
-  const rows = [csvLine(['rank', 'loss', 'satisfied', ...(r.designs[0]?.variables.flatMap((v) => (v.kind === 'fraction' ? [v.name] : [`${v.name}_nm`, `${v.name}_ML`])) ?? []),
+  const rows = [csvLine(['rank', 'loss', 'satisfied', ...(r.designs[0]?.variables.flatMap((v) => (v.kind !== 'length' ? [v.name] : [`${v.name}_nm`, `${v.name}_ML`])) ?? []),
     ...(r.designs[0]?.evaluations.flatMap((e) => [`${e.label} (${e.unit || '-'})`, `${e.label} residual`]) ?? []), 'critical_thickness_margin', 'file'])];
   for (const d of r.designs) {
     const file = `design-${d.rank}.yaml`;
     writeFileAtomic(join(dir, file), designSpecText(spec, d.values, `Design ${d.rank} of "${spec.title ?? args.spec}" by wellsmith design (seed ${r.seed}, ${r.starts} starts)\nloss ${d.loss}; every target ${d.satisfied ? 'met' : 'NOT met'}. Solve it with: wellsmith solve ${file}`));
-    rows.push(csvLine([d.rank, d.loss, d.satisfied ? 'yes' : 'no', ...d.variables.flatMap((v) => (v.kind === 'fraction' ? [v.value] : [v.nm ?? NaN, v.ml ?? NaN])),
+    rows.push(csvLine([d.rank, d.loss, d.satisfied ? 'yes' : 'no', ...d.variables.flatMap((v) => (v.kind !== 'length' ? [v.value] : [v.nm ?? NaN, v.ml ?? NaN])),
       ...d.evaluations.flatMap((e) => [e.achieved ?? NaN, e.residual]), d.criticalMargin, file]));
   }
   writeFileAtomic(join(dir, 'ranking.csv'), `${rows.join('\n')}\n`);

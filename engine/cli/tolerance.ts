@@ -23,6 +23,8 @@ export interface ToleranceArgs {
   readonly mlSigma: number | undefined;
   readonly xSigma: number;
   readonly rateSigma: number;
+  /** How the periods of a repeated stack err: 'independent' (default) or 'correlated'. */
+  readonly periods?: string | undefined;
   readonly json: boolean;
 }
 
@@ -56,7 +58,10 @@ export function describeTolerance(r: ToleranceResult, title: string | undefined,
   if (mc) {
     lines.push('', `Monte Carlo: ${mc.samples} samples, seed ${mc.seed}; per layer ${modelText(mc.model.monolayers)}; composition σ ${mc.model.compositionSigma}; growth rate σ ${mc.model.rateSigmaPercent} %`,
       table(['quantity', 'unit', 'mean', 'σ', 'p5', 'p50', 'p95'], mc.distributions.map((d, k) => [q[k]!.label, q[k]!.unit || '-', sig(d.mean, 6), sig(d.sigma, 3), sig(d.p5, 6), sig(d.p50, 6), sig(d.p95, 6)])),
-      `yield ${fixed(mc.yield * 100, 1)} % (every target inside its window)${mc.failures ? `; ${mc.failures} samples failed to solve (counted out)` : ''}`);
+      `yield ${fixed(mc.yield * 100, 1)} % (every target inside its window)${mc.failures ? `; ${mc.failures} samples failed to solve (counted out)` : ''}${mc.model.periods === 'correlated' ? '; periods err alike (correlated)' : ''}`);
+    for (const e of mc.ensembles) {
+      lines.push(`ensemble of the wells' ${e.transition} lines: σ ${sig(e.sigma_meV, 3)} meV over ${e.lines} lines (inhomogeneous FWHM ${sig(e.fwhm_meV, 3)} meV, Gaussian); within one sample the wells spread by σ ${sig(e.withinSample_meV, 3)} meV`);
+    }
     if (mc.worst) {
       const p = mc.worst.perturbation;
       lines.push(`worst sample #${mc.worst.index}: loss ${sig(mc.worst.loss, 3)}; ${q.map((x, k) => `${x.label} ${sig(mc.worst!.values[k]!, 6)}`).join('; ')}; ML errors [${(p.thickness_ML ?? []).join(', ')}], growth rate ${signed(((p.thicknessScale ?? 1) - 1) * 100, 2)} %`);
@@ -84,7 +89,9 @@ export async function runTolerance(args: ToleranceArgs): Promise<Outcome> {
     }
     if (args.mlSigma !== undefined && !(args.mlSigma >= 0 && args.mlSigma <= 5)) throw new InputError('bad-value', `--ml-sigma: must lie in [0, 5] ML, got ${args.mlSigma}`);
     const monolayers = args.mlSigma !== undefined ? { kind: 'sigma', sigma: args.mlSigma } as const : parseMonolayerTable(args.mlTable);
-    const growth: GrowthModel = { monolayers, compositionSigma: args.xSigma, rateSigmaPercent: args.rateSigma };
+    const periods = args.periods ?? 'independent';
+    if (periods !== 'independent' && periods !== 'correlated') throw new InputError('bad-value', `--periods: must be independent or correlated, got "${periods}"; independent draws every period's errors apart, correlated repeats one draw in every period`);
+    const growth: GrowthModel = { monolayers, compositionSigma: args.xSigma, rateSigmaPercent: args.rateSigma, periods };
     const sensitivity: SensitivityOptions = { dx: args.dx, ratePercent: args.rate, dT: args.dT };
     const loaded = loadSpecFile(args.spec);
     locate = loaded.locate;
@@ -100,18 +107,18 @@ export async function runTolerance(args: ToleranceArgs): Promise<Outcome> {
   }
 }
 
-/** The robust ranking as JSON: original rank, yield, samples and worst ±1 ML shift per design, in robust order. */
+/** The robust ranking as JSON: original rank, yield with its 95 % Wilson interval, samples and worst ±1 ML shift per design, in robust order. */
 export const robustJson = (r: RobustResult): unknown => ({
   seed: r.seed,
   samples: r.samples,
-  ranking: r.designs.map((d, k) => ({ robust_rank: k + 1, rank: d.design.rank, loss: d.design.loss, yield: d.yield, worst_monolayer_shift: d.worstShift })),
+  ranking: r.designs.map((d, k) => ({ robust_rank: k + 1, rank: d.design.rank, loss: d.design.loss, yield: d.yield, yield_interval_95: [d.interval.low, d.interval.high], worst_monolayer_shift: d.worstShift })),
 });
 
-/** The robust ranking table: designs by yield, then loss. */
+/** The robust ranking table: yields with their intervals; designs reordered only where intervals separate. */
 export function describeRobust(r: RobustResult): string {
-  return [`Robust ranking (${r.samples} Monte Carlo samples per design, seed ${r.seed}, default growth errors of "wellsmith tolerance"): by yield, then loss`,
-    table(['robust rank', 'rank', 'loss', 'yield', 'worst ±1 ML layer', 'shift −1 / +1 ML', 'impact'],
-      r.designs.map((d, k) => [String(k + 1), String(d.design.rank), sig(d.design.loss, 3), `${fixed(d.yield * 100, 1)} %`,
+  return [`Robust ranking (${r.samples} Monte Carlo samples per design, seed ${r.seed}, default growth errors of "wellsmith tolerance"): a design moves above another only where their 95 % Wilson yield intervals separate; elsewhere the design ranking stands`,
+    table(['robust rank', 'rank', 'loss', 'yield', '95 % interval', 'worst ±1 ML layer', 'shift −1 / +1 ML', 'impact'],
+      r.designs.map((d, k) => [String(k + 1), String(d.design.rank), sig(d.design.loss, 3), `${fixed(d.yield * 100, 1)} %`, `${fixed(d.interval.low * 100, 1)}–${fixed(d.interval.high * 100, 1)} %`,
         d.worstShift ? d.worstShift.label.replace(/ thickness ±1 ML$/, '') : '–',
         d.worstShift ? `${signed(d.worstShift.minus, 3)} / ${signed(d.worstShift.plus, 3)} ${d.worstShift.unit}` : '–',
         fixed(d.worstShift?.impact, 3)]))].join('\n');

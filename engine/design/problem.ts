@@ -14,6 +14,8 @@ import { buildStructure, variablesOf, type VariableInfo } from '../structure.js'
 import type { Spec } from '../spec/schema.js';
 import { buildWireStructure, type WireSettings } from '../wire/structure.js';
 import { solveWire, solveWireStructure, type WireSolveResult } from '../wire/solve.js';
+import { bandOfLabel } from '../solve.js';
+import { compilePreferences, preferencesNeedWavefunctions, preferenceStates, preferenceValues, searchScore, type Preference } from './preferences.js';
 
 export interface DesignProblem {
   readonly spec: Spec;
@@ -23,8 +25,10 @@ export interface DesignProblem {
   readonly settings: SolverSettings;
   /** Whether targets read overlaps or oscillator strengths (wavefunctions are then sampled during the search). */
   readonly wavefunctions: boolean;
-  /** States per band the targets read (absent band: all). */
+  /** States per band the targets and preferences read (absent band: all). */
   readonly states: Partial<Record<BandName, number>>;
+  /** Secondary objectives once the targets are met (spec `prefer:`). */
+  readonly preferences: readonly Preference[];
 }
 
 /** A solve of either geometry; objectives read the part they share (objectives/types.ts TargetSource). */
@@ -58,15 +62,22 @@ export function prepareDesign(spec: Spec): DesignProblem {
   const centre = valuesOf(variables, variables.map((v) => (v.from + v.to) / 2));
   if (geometry === 'wire') buildWireStructure(spec, centre);
   else buildStructure(spec, centre);
-  return { spec, geometry, variables, targets, settings: settingsOf(spec), wavefunctions: needsWavefunctions(targets), states: statesNeeded(targets) };
+  const preferences = compilePreferences(spec);
+  const states = statesNeeded(targets);
+  for (const label of preferenceStates(preferences)) {
+    const b = bandOfLabel(label)!;
+    if (states[b.band] !== undefined) states[b.band] = Math.max(states[b.band]!, b.index);
+  }
+  return { spec, geometry, variables, targets, settings: settingsOf(spec), wavefunctions: needsWavefunctions(targets) || preferencesNeedWavefunctions(preferences), states, preferences };
 }
 
 export const valuesOf = (variables: readonly VariableInfo[], x: readonly number[]): Record<string, number> =>
   Object.fromEntries(variables.map((v, i) => [v.name, x[i]!]));
 
+/** One candidate: its target loss and the search's score (preferences.ts searchScore; the loss when there are none). */
 export type Evaluated =
-  | { readonly ok: true; readonly loss: number; readonly scored: Scored; readonly result: DesignSolve }
-  | { readonly ok: false; readonly loss: number; readonly error: string };
+  | { readonly ok: true; readonly loss: number; readonly score: number; readonly scored: Scored; readonly result: DesignSolve }
+  | { readonly ok: false; readonly loss: number; readonly score: number; readonly error: string };
 
 /** The search's solve of a candidate: wells as configured (only the states targets read), wires on coarse settings. */
 function searchSolve(problem: DesignProblem, values: Readonly<Record<string, number>>): DesignSolve {
@@ -83,10 +94,13 @@ export function fullSolve(problem: DesignProblem, values: Readonly<Record<string
 export function evaluateDesign(problem: DesignProblem, values: Readonly<Record<string, number>>): Evaluated {
   try {
     const result = searchSolve(problem, values);
-    if (result.status === 'unphysical') return { ok: false, loss: Infinity, error: result.message };
+    if (result.status === 'unphysical') return { ok: false, loss: Infinity, score: Infinity, error: result.message };
     const scored = scoreTargets(problem.targets, result);
-    return Number.isFinite(scored.loss) ? { ok: true, loss: scored.loss, scored, result } : { ok: false, loss: Infinity, error: 'loss is not finite' };
+    if (!Number.isFinite(scored.loss)) return { ok: false, loss: Infinity, score: Infinity, error: 'loss is not finite' };
+    const prefs = problem.preferences;
+    const score = prefs.length && scored.satisfied && !isWireSolve(result) ? searchScore(prefs, scored.loss, true, preferenceValues(prefs, result)) : scored.loss;
+    return { ok: true, loss: scored.loss, score, scored, result };
   } catch (e) {
-    return { ok: false, loss: Infinity, error: e instanceof Error ? `${e.name}: ${e.message}` : String(e) };
+    return { ok: false, loss: Infinity, score: Infinity, error: e instanceof Error ? `${e.name}: ${e.message}` : String(e) };
   }
 }

@@ -1,7 +1,8 @@
 /**
  * Inverse design: many bounded Nelder–Mead starts from a seeded Latin hypercube, run on the
- * worker pool, each snapped to a growable lattice point; then duplicates dropped, designs ranked
- * by loss (ties by start index), the top K re-solved in full. Same spec and seed give the same
+ * worker pool, each snapped to a growable lattice point; then near-duplicates merged, designs
+ * ranked (targets met first, then the spec's preferences, then loss, ties by start index), the top
+ * K re-solved in full. Same spec and seed give the same
  * ranked designs for any worker count, because every start is deterministic and results are
  * ordered by start index before ranking.
  */
@@ -10,7 +11,11 @@ import { runTasks, type PoolOptions } from '../pool.js';
 import type { Spec } from '../spec/schema.js';
 import type { VariableInfo } from '../structure.js';
 import { scoreTargets } from '../../objectives/index.js';
-import { fullSolve, isWireSolve, prepareDesign, type DesignSolve } from './problem.js';
+import { fullSolve, isWireSolve, prepareDesign, type DesignProblem, type DesignSolve } from './problem.js';
+import { comparePreferences, criticalMargin, preferenceValues } from './preferences.js';
+import { nearDuplicates, stackFingerprint, wireFingerprint, type Fingerprint } from './duplicates.js';
+import { buildStructure } from '../structure.js';
+import { buildWireStructure } from '../wire/structure.js';
 import type { StartOutcome, StartTask } from './start.js';
 import { startPoints } from './starts.js';
 
@@ -41,10 +46,10 @@ export const defaultDesignOptions = (spec: Spec): Omit<DesignOptions, 'workers'>
 
 export interface DesignVariable {
   readonly name: string;
-  readonly kind: 'length' | 'fraction';
-  /** Value in the variable's own unit (nm, ML or fraction). */
+  readonly kind: 'length' | 'fraction' | 'strain';
+  /** Value in the variable's own unit (nm, ML, % or fraction). */
   readonly value: number;
-  readonly unit: 'nm' | 'ML' | '';
+  readonly unit: 'nm' | 'ML' | '%' | '';
   /** For lengths: thickness in nm and in monolayers of the first layer (or wire part) it sizes. */
   readonly nm?: number;
   readonly ml?: number;
@@ -59,8 +64,10 @@ export interface Design {
   readonly variables: readonly DesignVariable[];
   readonly values: Readonly<Record<string, number>>;
   readonly evaluations: readonly Evaluation[];
-  /** Smallest (h_c − t)/h_c over strained layers (1 = unstrained or far below; < 0 = above critical); NaN for a wire, whose strain is not modelled. */
+  /** Smallest 1 − t/h_c over strained layers and runs of them (preferences.ts criticalMargin; 1 = unstrained or far below; < 0 = above critical); NaN for a wire, whose strain is not modelled. */
   readonly criticalMargin: number;
+  /** The spec's preferences evaluated on the full solve, in their order. */
+  readonly preferences: readonly { readonly label: string; readonly value: number; readonly unit: string }[];
   /** The start that found it. */
   readonly start: number;
   /** The full solve with the spec's own settings (a SolveResult, or a WireSolveResult for a wire spec). */
@@ -93,21 +100,20 @@ function atBound(v: VariableInfo, value: number): DesignVariable['atBound'] {
 }
 
 /** Length in nm and monolayers of what a length variable sizes: the first stack layer, or the first wire dimension, set by it. */
-function sizeOf(spec: Spec, result: DesignSolve, name: string): { nm: number; ml: number } | undefined {
+function sizeOf(result: DesignSolve, name: string): { nm: number; ml: number } | undefined {
   if (!isWireSolve(result)) {
-    const i = spec.stack.findIndex((l) => typeof l.thickness === 'string' && l.thickness.trim() === name);
-    const layer = result.structure.layers[i];
+    const layer = result.structure.layers.find((l) => l.thicknessVariable === name);
     return layer ? { nm: layer.thickness_nm, ml: layer.monolayers } : undefined;
   }
   const d = result.structure.lengthVariables[name];
   return d ? { nm: d.nm, ml: d.nm / d.monolayer_nm } : undefined;
 }
 
-function describeVariables(spec: Spec, variables: readonly VariableInfo[], values: Readonly<Record<string, number>>, result: DesignSolve): DesignVariable[] {
+function describeVariables(variables: readonly VariableInfo[], values: Readonly<Record<string, number>>, result: DesignSolve): DesignVariable[] {
   return variables.map((v) => {
     const value = values[v.name]!;
     const base = { name: v.name, kind: v.kind, value, unit: v.unit, atBound: atBound(v, value) };
-    const size = v.kind === 'length' ? sizeOf(spec, result, v.name) : undefined;
+    const size = v.kind === 'length' ? sizeOf(result, v.name) : undefined;
     return size ? { ...base, ...size } : base;
   });
 }
@@ -129,44 +135,53 @@ export async function design(spec: Spec, options: DesignOptions): Promise<Design
 
 /**
  * Ranking of finished starts (from one run, or gathered across a resumed campaign): drop
- * unevaluable and duplicate designs, order by loss then start index, re-solve the top K in full.
+ * unevaluable designs, take them by search score (the loss, or with preferences the preferred
+ * among those meeting the targets) then start index, skip near-duplicates of designs already
+ * kept (duplicates.ts), re-solve the top K in full, and order those: designs meeting every target
+ * first, by the preferences (lexicographic with ties), then by loss, then by start index.
  */
-export function rankDesigns(spec: Spec, outcomes: readonly StartOutcome[], options: Pick<DesignOptions, 'top' | 'seed' | 'starts'>): DesignResult {
+export function rankDesigns(spec: Spec, outcomes: readonly StartOutcome[], options: Pick<DesignOptions, 'top' | 'seed' | 'starts'> & { readonly compositionStep?: number }): DesignResult {
   const problem = prepareDesign(spec);
+  const step = options.compositionStep ?? DEFAULT_DESIGN_OPTIONS.compositionStep;
   const evaluations = outcomes.reduce((a, o) => a + o.evaluations, 0);
   const failures = outcomes.reduce((a, o) => a + o.failures, 0);
-  const seen = new Set<string>();
-  const unique = [...outcomes]
-    .filter((o) => Number.isFinite(o.snapped.loss))
-    .sort((a, b) => a.snapped.loss - b.snapped.loss || a.index - b.index)
-    .filter((o) => {
-      const key = problem.variables.map((v) => o.snapped.values[v.name]!.toPrecision(12)).join('|');
-      if (seen.has(key)) return false;
-      seen.add(key);
-      return true;
-    })
-    .slice(0, options.top);
+  const score = (o: StartOutcome): number => o.snapped.score ?? o.snapped.loss;
+  const ordered = [...outcomes].filter((o) => Number.isFinite(o.snapped.loss)).sort((a, b) => score(a) - score(b) || a.index - b.index);
+  const kept: { o: StartOutcome; print: Fingerprint }[] = [];
+  for (const o of ordered) {
+    if (kept.length >= options.top) break;
+    const print = fingerprintOf(problem, o.snapped.values);
+    if (kept.some((k) => nearDuplicates(k.print, print, step))) continue;
+    kept.push({ o, print });
+  }
 
-  const solved = unique.map((o) => {
+  const prefs = problem.preferences;
+  const solved = kept.map(({ o }) => {
     const result = fullSolve(problem, o.snapped.values);
-    return { o, result, scored: scoreTargets(problem.targets, result) };
+    const scored = scoreTargets(problem.targets, result);
+    return { o, result, scored, prefs: isWireSolve(result) ? [] : preferenceValues(prefs, result) };
   });
-  // A wire search scores on coarse settings, so the full solves may reorder the designs; for a stack this sort keeps the order.
-  solved.sort((a, b) => a.scored.loss - b.scored.loss || a.o.index - b.o.index);
-  const designs = solved.map(({ o, result, scored }, k): Design => {
-    const margin = isWireSolve(result) ? NaN : Math.min(1, ...result.structure.layers.map((l) => 1 - l.thickness_nm / l.material.criticalThickness_nm));
-    return {
-      rank: k + 1,
-      loss: scored.loss,
-      satisfied: scored.satisfied,
-      variables: describeVariables(spec, problem.variables, o.snapped.values, result),
-      values: o.snapped.values,
-      evaluations: scored.evaluations,
-      criticalMargin: margin,
-      start: o.index,
-      result,
-    };
-  });
+  // A wire search scores on coarse settings, so the full solves may reorder the designs; for a stack without preferences this sort keeps the order.
+  solved.sort((a, b) => Number(b.scored.satisfied) - Number(a.scored.satisfied)
+    || (a.scored.satisfied ? comparePreferences(prefs, a.prefs, b.prefs) : 0)
+    || a.scored.loss - b.scored.loss || a.o.index - b.o.index);
+  const designs = solved.map(({ o, result, scored, prefs: values }, k): Design => ({
+    rank: k + 1,
+    loss: scored.loss,
+    satisfied: scored.satisfied,
+    variables: describeVariables(problem.variables, o.snapped.values, result),
+    values: o.snapped.values,
+    evaluations: scored.evaluations,
+    criticalMargin: isWireSolve(result) ? NaN : criticalMargin(result.structure),
+    preferences: prefs.map((p, i) => ({ label: p.label, value: values[i] ?? NaN, unit: p.unit })),
+    start: o.index,
+    result,
+  }));
   const status: DesignStatus = designs.length === 0 ? 'no-finite-value' : designs[0]!.satisfied ? 'ok' : 'infeasible';
   return { status, message: DESIGN_MESSAGES[status], designs, seed: options.seed, starts: options.starts, evaluations, failures };
+}
+
+/** The near-duplicate fingerprint of a design's structure (stack or wire), built without solving. */
+function fingerprintOf(problem: DesignProblem, values: Readonly<Record<string, number>>): Fingerprint {
+  return problem.geometry === 'stack' ? stackFingerprint(buildStructure(problem.spec, values)) : wireFingerprint(buildWireStructure(problem.spec, values));
 }

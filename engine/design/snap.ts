@@ -1,7 +1,7 @@
 /**
  * Growable designs: a continuous optimum is moved to the lattice a grower can realise — whole
  * monolayers for thicknesses and wire dimensions (of the material each one sizes), a composition
- * step (default 0.001) for fractions — by evaluating the neighbouring lattice points (floor and
+ * step (default 0.001) for fractions, STRAIN_STEP_PERCENT for strains — by evaluating the neighbouring lattice points (floor and
  * ceiling in every variable) and keeping the best.
  */
 import { buildStructure, type VariableInfo } from '../structure.js';
@@ -16,7 +16,13 @@ export interface SnapOptions {
   readonly compositionStep: number;
 }
 
-/** Floor/ceil grid values of one fraction variable inside its bounds. */
+/**
+ * Grid of strain variables (%): 0.01 % of strain is a composition step of about 0.0014 in InGaAs
+ * on GaAs (7.2 % between the ends), the order of the default composition step.
+ */
+export const STRAIN_STEP_PERCENT = 0.01;
+
+/** Floor/ceil grid values of one fraction (or strain) variable inside its bounds. */
 function fractionChoices(v: VariableInfo, x: number, step: number): number[] {
   const lo = Math.ceil(v.from / step - 1e-9);
   const hi = Math.floor(v.to / step + 1e-9);
@@ -38,9 +44,7 @@ function lengthChoices(v: VariableInfo, x: number, monolayer_nm: number): number
 /** The monolayer (nm) of the first layer (or wire part) whose size is the variable `name`, in the structure at `values`. */
 function monolayerOf(problem: DesignProblem, values: Readonly<Record<string, number>>, name: string): number {
   if (problem.geometry === 'wire') return buildWireStructure(problem.spec, values).lengthVariables[name]!.monolayer_nm;
-  const i = problem.spec.stack.findIndex((l) => typeof l.thickness === 'string' && l.thickness.trim() === name);
-  const s = buildStructure(problem.spec, values);
-  return s.layers[i]!.monolayer_nm;
+  return buildStructure(problem.spec, values).layers.find((l) => l.thicknessVariable === name)!.monolayer_nm;
 }
 
 export interface Snapped {
@@ -54,7 +58,7 @@ export interface Snapped {
 export function snapToLattice(problem: DesignProblem, x: readonly number[], options: SnapOptions): Snapped {
   const vars = problem.variables;
   // Compositions first: the monolayer of a strained layer depends on them.
-  const fractionSets = vars.map((v, i) => (v.kind === 'fraction' ? fractionChoices(v, x[i]!, options.compositionStep) : [x[i]!]));
+  const fractionSets = vars.map((v, i) => (v.kind === 'length' ? [x[i]!] : fractionChoices(v, x[i]!, v.kind === 'strain' ? STRAIN_STEP_PERCENT : options.compositionStep)));
   let best: Snapped | undefined;
   let evaluations = 0;
   for (const fractions of corners(fractionSets, x)) {
@@ -68,7 +72,7 @@ export function snapToLattice(problem: DesignProblem, x: readonly number[], opti
       const values = valuesOf(vars, point);
       const evaluated = evaluateDesign(problem, values);
       evaluations++;
-      if (!best || evaluated.loss < best.evaluated.loss) best = { values, evaluated, evaluations: 0 };
+      if (!best || evaluated.score < best.evaluated.score) best = { values, evaluated, evaluations: 0 };
     }
   }
   return { ...best!, evaluations };

@@ -29,8 +29,8 @@ export interface StartOutcome {
   readonly evaluations: number;
   /** Candidates that failed numerically (counted, not fatal). */
   readonly failures: number;
-  /** The growable design of this start: variable values (nm, ML or fraction) and its loss. */
-  readonly snapped: { readonly values: Readonly<Record<string, number>>; readonly loss: number };
+  /** The growable design of this start: variable values (nm, ML, % or fraction), its loss and search score (absent in runs stored before preferences: the loss). */
+  readonly snapped: { readonly values: Readonly<Record<string, number>>; readonly loss: number; readonly score?: number };
 }
 
 /**
@@ -52,8 +52,9 @@ export function runStart(task: StartTask): StartOutcome {
   const nm = minimize((x) => {
     const e = evaluateDesign(problem, valuesOf(problem.variables, x));
     if (!e.ok) failures++;
-    return e.loss;
-  }, task.x0, { bounds, maxEvaluations: task.maxEvaluations, xTolerance: X_TOLERANCE, fTolerance: F_TOLERANCE, stopValue: F_TOLERANCE });
+    return e.score;
+    // With preferences a met target is only the start: the search goes on along the preferred direction.
+  }, task.x0, { bounds, maxEvaluations: task.maxEvaluations, xTolerance: X_TOLERANCE, fTolerance: F_TOLERANCE, stopValue: problem.preferences.length ? -Infinity : F_TOLERANCE });
   const snapped = snapToLattice(problem, nm.x, { compositionStep: task.compositionStep });
   if (!snapped.evaluated.ok) failures++;
   return {
@@ -65,6 +66,6 @@ export function runStart(task: StartTask): StartOutcome {
     iterations: nm.iterations,
     evaluations: nm.evaluations + snapped.evaluations,
     failures,
-    snapped: { values: snapped.values, loss: snapped.evaluated.loss },
+    snapped: { values: snapped.values, loss: snapped.evaluated.loss, score: snapped.evaluated.score },
   };
 }

@@ -9,9 +9,13 @@ import { variablesOf } from '../structure.js';
 
 export function designSpec(spec: Spec, values: Readonly<Record<string, number>>): Spec {
   const vary: NonNullable<Spec['vary']> = {};
+  const text = (x: number, unit: string): string | number => (unit === '' ? x : `${String(x)} ${unit}`);
   for (const v of variablesOf(spec)) {
-    const x = values[v.name]!;
-    vary[v.name] = { ...spec.vary![v.name]!, value: v.unit === '' ? x : `${String(x)} ${v.unit}` };
+    const x = text(values[v.name]!, v.unit);
+    // A per_period variable writes one value per period, in period order.
+    const key = v.perPeriod?.base ?? v.name;
+    const before = vary[key]?.value;
+    vary[key] = { ...spec.vary![key]!, value: v.perPeriod ? [...(Array.isArray(before) ? before : []), x] : x };
   }
   return { ...spec, vary };
 }

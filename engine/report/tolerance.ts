@@ -65,7 +65,7 @@ export async function toleranceReport(spec: Spec, values: Readonly<Record<string
   const base = await tolerance(spec, values, { ...options, samples: 0 });
   if (base.status !== 'ok' || options.samples === 0) return { result: base, samples: null, windows: base.quantities.map(() => null) };
   const samples = await runSamples(spec, values, options);
-  const result: ToleranceResult = { ...base, montecarlo: summarise(samples, base.quantities.length, options.seed, spec.stack.length, options.growth) };
+  const result: ToleranceResult = { ...base, montecarlo: summarise(samples, base.quantities, options.seed, spec, options.growth) };
   const problem = prepareTolerance(spec, values);
   const nominal = scoreTargets(problem.targets, solveStructure(buildStructure(spec, values), settingsOf(spec), { wavefunctions: problem.wavefunctions, states: problem.states }));
   const goals = base.quantities.map((q, k) => (q.target && nominal.evaluations[k]?.role === 'target' ? nominal.evaluations[k]!.goal : null));

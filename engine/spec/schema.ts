@@ -17,14 +17,63 @@ export const fractionValue = z.union([
   z.object({ from: z.number(), to: z.number() }).strict(),
 ]);
 
+const layerKeys = {
+  material: z.string().min(1).describe('Formula (Al0.3Ga0.7As), named alloy (InGaAs with a fraction key such as In: 0.2), a quaternary lattice-matched to InP by its 300 K gap wavelength (Q1.25 or InGaAsP(1.25 µm); AlGaInAs(1.3 µm)) or a custom material name'),
+  thickness: quantity.describe('Length with unit (nm, Å, ML) or the name of a vary variable'),
+  label: z.string().optional().describe('A name for the layer used in tables (well, barrier…); inside a repeat the period is added, e.g. well[3]'),
+  strain: quantity.optional().describe('In-plane mismatch strain on the substrate ("-1 %", negative compressive) or a vary variable in %: the free fraction of a ternary name (InGaAs, GaAsP…) is solved to give it'),
+};
+
 export const layerSchema = z
-  .object({
-    material: z.string().min(1).describe('Formula (Al0.3Ga0.7As), named alloy (InGaAs with a fraction key such as In: 0.2) or a custom material name'),
-    thickness: quantity.describe('Length with unit (nm, Å, ML) or the name of a vary variable'),
-    label: z.string().optional().describe('A name for the layer used in tables (well, barrier…)'),
-  })
+  .object(layerKeys)
   .catchall(fractionValue)
   .describe('One layer, from the substrate side upwards');
+
+const repeatKeys = {
+  periods: z.number().int().min(1).max(1000).describe('How many times the layers of "repeat" are grown'),
+  label: z.string().optional().describe('A name for the repeat block, used in messages'),
+};
+
+/**
+ * One stack entry: a layer, or a repeat block { repeat: [layers], periods: N }. Written as one
+ * object (not a union) so that an error inside either kind still names its own field, e.g.
+ * stack[2].repeat[1].thickness; checkEntry tells the two kinds apart.
+ */
+function entrySchema<T extends z.ZodType>(inner: T | null, topLevel: boolean) {
+  const shape = {
+    ...layerKeys,
+    material: layerKeys.material.optional(),
+    thickness: layerKeys.thickness.optional(),
+    ...(inner === null ? {} : {
+      repeat: z.array(inner).min(1).optional().describe('Layers of one period, grown "periods" times (a repeat may hold one level of repeats)'),
+      periods: repeatKeys.periods.optional(),
+      per_period: z.array(name).optional().describe('Variables that take one value per period (w[1], w[2]…), instead of one value shared by every period; top-level repeats only'),
+    }),
+  };
+  return z.object(shape).catchall(fractionValue).superRefine((e, ctx) => checkEntry(e as Record<string, unknown>, topLevel, ctx));
+}
+
+/** A layer needs material and thickness; a repeat block needs periods and takes no layer keys. */
+function checkEntry(e: Record<string, unknown>, topLevel: boolean, ctx: z.core.$RefinementCtx): void {
+  if (e.repeat === undefined) {
+    for (const key of ['material', 'thickness'] as const) {
+      if (e[key] === undefined) ctx.addIssue({ code: 'custom', path: [key], input: undefined, message: 'is required for a layer (or write a repeat block { repeat: [layers], periods: N })' });
+    }
+    for (const key of ['periods', 'per_period']) {
+      if (e[key] !== undefined) ctx.addIssue({ code: 'custom', path: [key], input: e[key], message: 'belongs to a repeat block { repeat: [layers], periods: N }, not to a layer' });
+    }
+    return;
+  }
+  if (!topLevel && e.per_period !== undefined) ctx.addIssue({ code: 'custom', path: ['per_period'], input: e.per_period, message: 'is allowed on a top-level repeat only (its periods number the variables); move it to the outer repeat' });
+  if (e.periods === undefined) ctx.addIssue({ code: 'custom', path: ['periods'], input: undefined, message: 'is required for a repeat block: how many times its layers are grown, e.g. periods: 5' });
+  for (const key of Object.keys(e)) {
+    if (!['repeat', 'periods', 'per_period', 'label'].includes(key)) ctx.addIssue({ code: 'custom', path: [key], input: e[key], message: 'a repeat block takes only repeat, periods, per_period and label; put layer keys inside its layers' });
+  }
+}
+
+/** Entries of a repeat block: layers, or repeat blocks of layers (nesting goes one level deep). */
+export const innerEntrySchema = entrySchema(layerSchema, false);
+export const stackEntrySchema = entrySchema(innerEntrySchema, true).describe('A layer, or a repeat block { repeat: [layers], periods: N, per_period?: [variables] }');
 
 export const customMaterialSchema = z
   .object({
@@ -45,7 +94,7 @@ export const variableSchema = z
   .object({
     from: quantity,
     to: quantity,
-    value: quantity.optional().describe('Nominal value used by solve and tolerance'),
+    value: z.union([quantity, z.array(quantity).min(1)]).optional().describe('Nominal value used by solve and tolerance; a list gives one value per period for a per_period variable'),
   })
   .strict();
 
@@ -83,6 +132,19 @@ export const carriersSchema = z
   })
   .strict();
 
+/** Figures a preference can rank by (engine/design/preferences.ts computes them). */
+export const PREFERENCE_FIGURES = ['critical_margin', 'spacing', 'splitting', 'overlap', 'total_thickness', 'indium', 'aluminium', 'gallium', 'phosphorus', 'antimony', 'strain_residual'] as const;
+
+export const preferenceSchema = z
+  .object({
+    maximize: z.enum(PREFERENCE_FIGURES).optional().describe('Figure to make as large as possible'),
+    minimize: z.enum(PREFERENCE_FIGURES).optional().describe('Figure to make as small as possible'),
+    of: z.string().optional().describe('The states a spacing, splitting or overlap reads, e.g. e1-e2, hh1-lh1, e1-hh1'),
+    within: quantity.optional().describe('Values closer than this tie (in the figure\'s unit: meV, nm, %, or a number)'),
+  })
+  .strict()
+  .describe('critical_margin: smallest 1 − t/h_c over layers and merged strained runs; spacing/splitting: meV between the "of" states; overlap: overlap² of "of"; total_thickness: nm; indium…antimony: thickness × fraction summed over layers (nm); strain_residual: |net average strain| (%)');
+
 export const specSchema = z
   .object({
     title: z.string().optional(),
@@ -92,12 +154,13 @@ export const specSchema = z
     offsets: offsetsSchema.optional(),
     materials: z.record(name, customMaterialSchema).optional(),
     vary: z.record(name, variableSchema).optional(),
-    stack: z.array(layerSchema).min(1).default([]).describe('Layers from the substrate upwards; omit it when the spec describes a wire'),
+    stack: z.array(stackEntrySchema).min(1).default([]).describe('Layers (and repeat blocks) from the substrate upwards; omit it when the spec describes a wire'),
     wire: wireSchema.optional(),
     solver: solverSchema.optional(),
     carriers: carriersSchema.optional(),
     growth: growthSchema.optional(),
     targets: z.array(z.record(z.string(), z.unknown())).optional(),
+    prefer: z.array(preferenceSchema).optional().describe('Secondary objectives, in order of importance, applied once every target is met (lexicographic; values within "within" tie and pass to the next)'),
   })
   .strict()
   // A spec is either a layer stack or a wire cross-section; the empty default keeps Spec.stack a list for well code.
@@ -124,5 +187,16 @@ export const specSchema = z
 
 export type Spec = z.infer<typeof specSchema>;
 export type LayerSpec = z.infer<typeof layerSchema>;
+export type StackEntry = z.infer<typeof stackEntrySchema>;
+/** A repeat block as code reads it (checkEntry guarantees its keys). */
+export interface RepeatBlock {
+  readonly repeat: readonly StackEntry[];
+  readonly periods: number;
+  readonly per_period?: readonly string[];
+  readonly label?: string;
+}
+/** The repeat block of a stack entry, or null for a layer. */
+export const repeatOf = (e: StackEntry): RepeatBlock | null => ((e as { repeat?: unknown }).repeat === undefined ? null : (e as unknown as RepeatBlock));
+export type PreferenceSpec = z.infer<typeof preferenceSchema>;
 export type CustomMaterialSpec = z.infer<typeof customMaterialSchema>;
 export type VariableSpec = z.infer<typeof variableSchema>;

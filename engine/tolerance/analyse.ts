@@ -9,7 +9,7 @@ import type { Spec } from '../spec/schema.js';
 import type { Perturbation } from '../structure.js';
 import { islandLines, type WellIslands } from './islands.js';
 import { measure, prepareTolerance, type Measurement, type Quantity } from './measure.js';
-import { batchTasks, distribution, samplePerturbation, DEFAULT_GROWTH, type BatchOutcome, type Distribution, type GrowthModel } from './montecarlo.js';
+import { batchTasks, distribution, drawKeys, samplePerturbation, DEFAULT_GROWTH, type BatchOutcome, type Distribution, type GrowthModel } from './montecarlo.js';
 import { sensitivities, DEFAULT_SENSITIVITY, type Sensitivity, type SensitivityOptions } from './sensitivity.js';
 
 export interface ToleranceOptions {
@@ -55,6 +55,43 @@ export interface MonteCarlo {
   readonly distributions: readonly Distribution[];
   /** The sample with the largest loss (first such index on ties); failed samples count as infinite loss. */
   readonly worst: WorstSample | null;
+  /** Per transition followed in every well of a multi-well stack: the spread of the wells' lines. */
+  readonly ensembles: readonly EnsembleSpread[];
+}
+
+/**
+ * The inhomogeneous spread of a multi-well stack's line: every well's own line in every sample
+ * pooled (the wells a wafer's photoluminescence adds up, over the wafers the samples stand for),
+ * and the spread across the wells of one sample, averaged over the samples.
+ */
+export interface EnsembleSpread {
+  readonly transition: string;
+  /** Lines pooled (finite ones) and their σ (meV, sample σ, n − 1); FWHM = 2√(2 ln 2) σ (Gaussian). */
+  readonly lines: number;
+  readonly sigma_meV: number;
+  readonly fwhm_meV: number;
+  /** σ across the wells within one sample (meV), averaged over the samples with ≥ 2 finite lines. */
+  readonly withinSample_meV: number;
+}
+
+/** FWHM of a Gaussian per unit σ: 2√(2 ln 2). */
+const FWHM_PER_SIGMA = 2 * Math.sqrt(2 * Math.LN2);
+
+/** The ensemble spreads of the per-well quantities (measure.ts), by transition in quantity order. */
+export function ensembleSpreads(samples: readonly Measurement[], quantities: readonly Quantity[]): EnsembleSpread[] {
+  const lines = [...new Set(quantities.flatMap((q) => (q.well ? [q.well.transition] : [])))];
+  return lines.map((transition) => {
+    const idx = quantities.flatMap((q, k) => (q.well?.transition === transition ? [k] : []));
+    const pooled = distribution(samples.flatMap((s) => idx.map((k) => s.values[k]!)));
+    const within = samples.map((s) => distribution(idx.map((k) => s.values[k]!))).filter((d) => d.n > 1);
+    return {
+      transition,
+      lines: pooled.n,
+      sigma_meV: pooled.sigma,
+      fwhm_meV: FWHM_PER_SIGMA * pooled.sigma,
+      withinSample_meV: within.length ? within.reduce((a, d) => a + d.sigma, 0) / within.length : NaN,
+    };
+  });
 }
 
 export interface ToleranceResult {
@@ -68,8 +105,9 @@ export interface ToleranceResult {
   readonly islands: readonly WellIslands[];
 }
 
-/** Summarises sample measurements (ordered by sample index). */
-export function summarise(samples: readonly Measurement[], quantityCount: number, seed: number, layers: number, model: GrowthModel): MonteCarlo {
+/** Summarises sample measurements (ordered by sample index) of the spec's quantities. */
+export function summarise(samples: readonly Measurement[], quantities: readonly Quantity[], seed: number, spec: Spec, model: GrowthModel): MonteCarlo {
+  const quantityCount = quantities.length;
   let worst = -1;
   samples.forEach((s, i) => { if (worst < 0 || s.loss > samples[worst]!.loss) worst = i; });
   const w = samples[worst];
@@ -80,7 +118,8 @@ export function summarise(samples: readonly Measurement[], quantityCount: number
     yield: samples.length ? samples.filter((s) => s.satisfied).length / samples.length : 0,
     failures: samples.filter((s) => !s.ok).length,
     distributions: Array.from({ length: quantityCount }, (_, q) => distribution(samples.map((s) => s.values[q]!))),
-    worst: w ? { index: worst, loss: w.loss, values: w.values, perturbation: samplePerturbation(seed, worst, layers, model) } : null,
+    worst: w ? { index: worst, loss: w.loss, values: w.values, perturbation: samplePerturbation(seed, worst, drawKeys(spec, model), model) } : null,
+    ensembles: ensembleSpreads(samples, quantities),
   };
 }
 
@@ -103,7 +142,7 @@ export async function tolerance(spec: Spec, values: Readonly<Record<string, numb
     message: TOLERANCE_MESSAGES.ok,
     ...base,
     sensitivities: sensitivities(problem, nominal, options.sensitivity),
-    montecarlo: options.samples > 0 ? summarise(samples, problem.quantities.length, options.seed, spec.stack.length, options.growth) : null,
+    montecarlo: options.samples > 0 ? summarise(samples, problem.quantities, options.seed, spec, options.growth) : null,
     islands: options.islands ? islandLines(spec, values, problem.settings) : [],
   };
 }

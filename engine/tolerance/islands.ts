@@ -14,6 +14,7 @@
 import { findTransition, solveStructure, type SolverSettings } from '../solve.js';
 import type { Spec } from '../spec/schema.js';
 import { buildStructure, type Structure } from '../structure.js';
+import { wellLayerIndices } from '../../objectives/wells.js';
 
 export interface IslandLine {
   /** "e1-hh1" or "e1-lh1". */
@@ -35,13 +36,7 @@ export interface WellIslands {
 }
 
 /** Layers whose Ec (at the layer's centre) is a local minimum along the stack (strictly below each neighbour). */
-export function wellLayers(s: Structure): number[] {
-  const ec = s.layers.map((l) => l.bands[Math.floor(l.bands.length / 2)]!.Ec);
-  return ec.flatMap((e, i) => {
-    const nb = [ec[i - 1], ec[i + 1]].filter((x): x is number => x !== undefined);
-    return nb.length > 0 && nb.every((x) => e < x) ? [i] : [];
-  });
-}
+export const wellLayers = (s: Structure): number[] => wellLayerIndices(s.layers);
 
 /** Island lines of every well of the spec at the given variable values. */
 export function islandLines(spec: Spec, values: Readonly<Record<string, number>>, settings: SolverSettings): readonly WellIslands[] {

@@ -6,17 +6,20 @@
 import { compileTargets, needsWavefunctions, scoreTargets, statesNeeded, type CompiledTarget } from '../../objectives/index.js';
 import type { BandName } from '../profile.js';
 import { InputError } from '../errors.js';
-import { findTransition, settingsOf, solveStructure, type SolverSettings } from '../solve.js';
+import { bandOfLabel, findTransition, settingsOf, solveStructure, type SolverSettings } from '../solve.js';
+import { localise, wellLine, wellsOf } from '../../objectives/wells.js';
 import type { Spec } from '../spec/schema.js';
 import { buildStructure, type Perturbation } from '../structure.js';
 
-/** One measured quantity: a target's achieved value, or a named transition's energy. */
+/** One measured quantity: a target's achieved value, a named transition's energy, or that line in one well. */
 export interface Quantity {
-  /** "e1-hh1 wavelength" (a target) or "e1-hh1 energy" (a transition the targets name). */
+  /** "e1-hh1 wavelength" (a target), "e1-hh1 energy" (a transition the targets name) or "e1-hh1 energy of well[3]". */
   readonly label: string;
   readonly unit: string;
   /** True for the achieved value of a target (its window decides the yield). */
   readonly target: boolean;
+  /** For a well's own line: the transition and the well's label. */
+  readonly well?: { readonly transition: string; readonly label: string };
 }
 
 export interface ToleranceProblem {
@@ -24,6 +27,8 @@ export interface ToleranceProblem {
   readonly values: Readonly<Record<string, number>>;
   readonly targets: readonly CompiledTarget[];
   readonly transitions: readonly string[];
+  /** Wells of a multi-well stack (labels, in stack order) whose own lines are measured; empty for one well. */
+  readonly wells: readonly string[];
   readonly quantities: readonly Quantity[];
   readonly settings: SolverSettings;
   readonly wavefunctions: boolean;
@@ -41,8 +46,9 @@ export interface Measurement {
   readonly error?: string;
 }
 
+/** The transition a target names (a transition, figure or ensemble target). */
 const transitionOf = (t: CompiledTarget): string | undefined => {
-  const raw = (t.target as { transition?: unknown }).transition;
+  const raw = (t.target as { transition?: unknown; ensemble?: unknown }).transition ?? (t.target as { ensemble?: unknown }).ensemble;
   return typeof raw === 'string' ? raw : undefined;
 };
 
@@ -55,14 +61,26 @@ export function prepareTolerance(spec: Spec, values: Readonly<Record<string, num
   if (targets.length === 0) throw new InputError('bad-value', 'targets: a tolerance analysis measures the targets, got none; add e.g. - { transition: e1-hh1, wavelength: 976 nm, within: 2 nm }', 'targets');
   const transitions = [...new Set(targets.flatMap((t) => transitionOf(t) ?? []))];
   const settings = settingsOf(spec);
-  const wavefunctions = needsWavefunctions(targets);
-  const states = statesNeeded(targets);
-  const nominal = scoreTargets(targets, solveStructure(buildStructure(spec, values), settings, { wavefunctions, states }));
+  const structure = buildStructure(spec, values);
+  // Several wells: every well's own line is followed, which needs the wavefunctions and every state of the bands it reads.
+  const wells = wellsOf(structure.layers).map((w) => w.label);
+  const perWell = wells.length > 1 && transitions.length > 0;
+  const wavefunctions = perWell || needsWavefunctions(targets);
+  const states = perWell ? withBands(statesNeeded(targets), transitions) : statesNeeded(targets);
+  const nominal = scoreTargets(targets, solveStructure(structure, settings, { wavefunctions, states }));
   const quantities: Quantity[] = [
     ...nominal.evaluations.map((e) => ({ label: e.label, unit: e.unit, target: true })),
     ...transitions.map((label) => ({ label: `${label} energy`, unit: 'meV', target: false })),
+    ...(perWell ? transitions.flatMap((line) => wells.map((w) => ({ label: `${line} energy of ${w}`, unit: 'meV', target: false, well: { transition: line, label: w } }))) : []),
   ];
-  return { spec, values, targets, transitions, quantities, settings, wavefunctions, states };
+  return { spec, values, targets, transitions, wells: perWell ? wells : [], quantities, settings, wavefunctions, states };
+}
+
+/** The states map with every band of the given transitions solved in full (a well's e1 may be any state). */
+function withBands(states: Partial<Record<BandName, number>>, transitions: readonly string[]): Partial<Record<BandName, number>> {
+  const out = { ...states };
+  for (const t of transitions) for (const l of t.split('-')) delete out[bandOfLabel(l)!.band];
+  return out;
 }
 
 /** Builds, solves and scores the structure with the given growth errors; numerical trouble is a failed measurement, not an exception. */
@@ -70,9 +88,11 @@ export function measure(problem: ToleranceProblem, perturbation: Perturbation = 
   try {
     const result = solveStructure(buildStructure(problem.spec, problem.values, perturbation), problem.settings, { wavefunctions: problem.wavefunctions, states: problem.states });
     const scored = scoreTargets(problem.targets, result);
+    const ws = problem.wells.length ? localise(result) : null;
     const values = [
       ...scored.evaluations.map((e) => e.achieved ?? NaN),
       ...problem.transitions.map((label) => (findTransition(result, label)?.energy_eV ?? NaN) * 1000),
+      ...(problem.wells.length ? problem.transitions.flatMap((line) => problem.wells.map((_, k) => (ws && k < ws.wells.length ? wellLine(result, ws, k, line) ?? NaN : NaN) * 1000)) : []),
     ];
     const ok = Number.isFinite(scored.loss);
     return { ok, values, residuals: scored.evaluations.map((e) => e.residual), loss: ok ? scored.loss : Infinity, satisfied: ok && scored.satisfied };

@@ -2,12 +2,14 @@
  * Monte Carlo growth yield. Each sample draws, from its own stream Random(deriveSeed(seed, i)),
  * a whole-monolayer error for every layer, an alloy-fraction error for every layer (applied where
  * the layer has a mixed fraction) and one growth-rate error; builds, solves and scores that
- * structure. Samples run in batches on the worker pool; because every sample's stream depends
+ * structure. In a repeated stack the user picks how periods err: 'independent' (every period's
+ * layers draw their own errors, as random shutter and flux noise does) or 'correlated' (each layer
+ * of the period draws once and every period repeats it, as a systematic calibration error does). Samples run in batches on the worker pool; because every sample's stream depends
  * only on (seed, index), results are identical for any worker count or batch size.
  */
 import { deriveSeed, Random } from '../random.js';
 import type { Spec } from '../spec/schema.js';
-import type { Perturbation } from '../structure.js';
+import { stackLayers, type Perturbation } from '../structure.js';
 import { measure, prepareTolerance, type Measurement } from './measure.js';
 
 /** Per-layer monolayer error model: a table of probabilities, or a Gaussian σ (ML) rounded to whole ML. */
@@ -21,6 +23,8 @@ export interface GrowthModel {
   readonly compositionSigma: number;
   /** σ of the growth-rate error (percent), one draw per sample for every layer. */
   readonly rateSigmaPercent: number;
+  /** How the periods of a repeat err: each on its own, or all alike (default independent). */
+  readonly periods?: 'independent' | 'correlated';
 }
 
 export const DEFAULT_GROWTH: GrowthModel = {
@@ -41,17 +45,33 @@ function drawMonolayers(r: Random, m: MonolayerModel): number {
 }
 
 /**
- * The growth errors of sample `index`: per layer (in stack order) one ML draw then one
- * composition draw, then the growth-rate draw. Draws are consumed whatever the σ's, and a zero σ
- * multiplies its deviate by 0, so a zero-σ sample is the nominal structure exactly.
+ * Which draw each layer of the grown stack takes: its own (independent periods, and every layer
+ * outside repeats), or, for correlated periods, the one of its layer as written in the repeat
+ * (every period shares it).
  */
-export function samplePerturbation(seed: number, index: number, layers: number, model: GrowthModel): Perturbation {
+export function drawKeys(spec: Spec, model: GrowthModel): readonly string[] {
+  return stackLayers(spec).map((l, i) => (model.periods === 'correlated' && l.period !== null ? l.field : String(i)));
+}
+
+/**
+ * The growth errors of sample `index` for layers keyed by drawKeys: per distinct key (in order of
+ * first appearance) one ML draw then one composition draw, then the growth-rate draw. Draws are
+ * consumed whatever the σ's, and a zero σ multiplies its deviate by 0, so a zero-σ sample is the
+ * nominal structure exactly. Without repeats every key is distinct: one draw pair per layer.
+ */
+export function samplePerturbation(seed: number, index: number, keys: readonly string[], model: GrowthModel): Perturbation {
   const r = new Random(deriveSeed(seed, index));
+  const drawn = new Map<string, { ml: number; x: number }>();
   const thickness_ML: number[] = [];
   const composition: number[] = [];
-  for (let i = 0; i < layers; i++) {
-    thickness_ML.push(drawMonolayers(r, model.monolayers));
-    composition.push(model.compositionSigma * r.normal());
+  for (const key of keys) {
+    let d = drawn.get(key);
+    if (!d) {
+      d = { ml: drawMonolayers(r, model.monolayers), x: model.compositionSigma * r.normal() };
+      drawn.set(key, d);
+    }
+    thickness_ML.push(d.ml);
+    composition.push(d.x);
   }
   return { thickness_ML, composition, thicknessScale: 1 + (model.rateSigmaPercent * r.normal()) / 100 };
 }
@@ -75,9 +95,9 @@ export interface BatchOutcome {
 /** Runs samples first … first + count − 1 (the pool's unit of work). */
 export function runBatch(task: BatchTask): BatchOutcome {
   const problem = prepareTolerance(task.spec, task.values);
-  const layers = task.spec.stack.length;
+  const keys = drawKeys(task.spec, task.model);
   const samples: Measurement[] = [];
-  for (let i = task.first; i < task.first + task.count; i++) samples.push(measure(problem, samplePerturbation(task.seed, i, layers, task.model)));
+  for (let i = task.first; i < task.first + task.count; i++) samples.push(measure(problem, samplePerturbation(task.seed, i, keys, task.model)));
   return { type: 'tolerance-batch', first: task.first, samples };
 }
 
