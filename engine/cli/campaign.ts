@@ -6,6 +6,7 @@
 import { chmodSync } from 'node:fs';
 import { basename, dirname, extname, join, resolve } from 'node:path';
 import { loadCampaignFile, type Campaign } from '../campaign/campaign.js';
+import { isSpecFile, parseYamlText, readInputText } from '../spec/load.js';
 import { designsCsv } from '../campaign/export.js';
 import { runCampaign, type RunSummary, type Shard } from '../campaign/run.js';
 import { slurmScripts } from '../campaign/slurm.js';
@@ -99,9 +100,14 @@ export async function runCampaignCommand(args: CampaignArgs): Promise<Outcome> {
     if (!Number.isInteger(args.workers) || args.workers < 1) throw new InputError('bad-value', `--workers: must be a whole number ≥ 1, got ${args.workers}`);
     if (args.export !== undefined && args.export !== 'csv') throw new InputError('bad-value', `--export: the only format is csv, got ${JSON.stringify(args.export)}`);
     const shard = parseShard(args.shard);
+    const peek = parseYamlText(readInputText(args.file, 'campaign file'), args.file).value;
+    if (peek !== null && typeof peek === 'object' && !Array.isArray(peek) && isSpecFile(peek as Record<string, unknown>)) {
+      throw new InputError('schema', `${args.file}: this is a spec, not a campaign file; design it with "wellsmith design ${args.file}", or write a campaign file that names it under "spec:" with a "sweep:"`);
+    }
     const campaign = loadCampaignFile(args.file);
-    ensureFolder(out, '--out');
     if (args.slurm !== undefined) return writeSlurm(campaign, args.file, out, args.slurm, args.workers);
+    // A finished run folder may be read-only (an archive): the store says when something needs writing.
+    ensureFolder(out, '--out', { writable: false });
     store = RunStore.open(out);
     process.on('SIGINT', onSignal);
     process.on('SIGTERM', onSignal);

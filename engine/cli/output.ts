@@ -15,12 +15,12 @@ function folderProblem(code: string | undefined, at: string): string {
 }
 
 /**
- * Makes sure `folder` exists and is writable, creating missing folders one level at a time
+ * Makes sure `folder` exists and (unless options.writable is false) is writable, creating missing folders one level at a time
  * (Node's recursive mkdir loops for ever under /proc), before any work starts. Throws InputError
  * 'io' naming the field, the component at fault and why: a file in the way, no permission, a
  * read-only or special file system.
  */
-export function ensureFolder(folder: string, label: string): void {
+export function ensureFolder(folder: string, label: string, options: { readonly writable?: boolean } = {}): void {
   // The label names an option or a file, not a spec field: no field is attached, so no spec line is looked up.
   const fail = (why: string): never => { throw new InputError('io', `${label}: ${why}; choose another path`); };
   const full = resolve(folder);
@@ -46,6 +46,7 @@ export function ensureFolder(folder: string, label: string): void {
       fail(folderProblem(code, at));
     }
   }
+  if (options.writable === false) return;
   try {
     accessSync(full, constants.W_OK);
   } catch (e) {

@@ -110,11 +110,20 @@ export function parseYamlText(text: string, origin: string): { readonly value: u
   return { value, locate: locator(doc, lines) };
 }
 
+/** A campaign file names a base spec and sweeps it; a spec has layers or a wire. */
+export const isCampaignFile = (v: Record<string, unknown>): boolean => 'sweep' in v && 'spec' in v && !('stack' in v) && !('wire' in v);
+
+/** A spec has a stack or a wire and no sweep. */
+export const isSpecFile = (v: Record<string, unknown>): boolean => ('stack' in v || 'wire' in v) && !('sweep' in v);
+
 /** Parses spec text (YAML, of which JSON is a subset). */
 export function parseSpecText(text: string, origin = '<inline>'): LoadedSpec {
   const { value, locate } = parseYamlText(text, origin);
   if (value === null || typeof value !== 'object' || Array.isArray(value)) {
     throw new InputError('schema', `${origin}: a spec must be a mapping with at least a "stack" list, got ${value === null ? 'an empty file' : Array.isArray(value) ? 'a list' : typeof value}`);
+  }
+  if (isCampaignFile(value as Record<string, unknown>)) {
+    throw new InputError('schema', `${origin}: this is a campaign file (it has "sweep:" and "spec:"), not a spec; run it with "wellsmith campaign ${origin}"`);
   }
   return { spec: validateSpec(value, locate), origin, locate };
 }
