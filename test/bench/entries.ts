@@ -77,7 +77,7 @@ function newestSource(dir: string): number {
 }
 
 /** Builds dist/ (the library and the bundled command) when it is missing or older than a source; the build's output goes to stderr. Returns the command. */
-function ensureBuilt(): string {
+export function ensureBuilt(): string {
   const main = join(ROOT, 'dist/bin/wellsmith.js');
   const outputs = [main, join(ROOT, 'dist/engine/design/search.js')];
   const sources = Math.max(...['engine', 'objectives', 'materials', 'scripts'].map((d) => newestSource(join(ROOT, d))));

@@ -6,8 +6,12 @@
  */
 import { writeFileSync } from 'node:fs';
 import { join } from 'node:path';
-import { ENTRIES, ROOT } from './entries.js';
-import { formatTable, runEntry, type BenchRow } from './harness.js';
+import { ENTRIES as CORE, ROOT } from './entries.js';
+import { SCENARIO_ENTRIES } from './scenario-entries.js';
+import { formatTable, runEntry, type BenchRow, type BenchEntry } from './harness.js';
+
+/** Every entry, the core ones first. */
+const ENTRIES: readonly BenchEntry[] = [...CORE, ...SCENARIO_ENTRIES];
 
 interface Args {
   readonly json: boolean;
