@@ -16,6 +16,6 @@ describe('input size limits', () => {
     const out = await cli(['solve', file]);
     expect(out.code).toBe(2);
     expect(out.stderr).toMatch(/MiB, more than the limit of 4 MiB/);
-    expect(Date.now() - started, 'refused before parsing').toBeLessThan(2000);
+    expect(Date.now() - started, 'refused before parsing (parsing it took minutes)').toBeLessThan(10_000);
   });
 });
