@@ -5,6 +5,8 @@
  * Cold (threads not yet started, or started in this call): this thread is one of the W lanes,
  * beside W − 1 threads, so a search never waits for threads to load the engine (0.1–0.3 s) and
  * warm up their JIT (their first hundreds of evaluations run 2–3× slower); W = 1 needs no thread.
+ * Threads start only when they pay (threadsPay): enough work left, and a processor idle beside this
+ * thread; so in a fresh process --workers 2 is not slower than --workers 1 on a busy machine.
  * Warm (all W threads kept from earlier calls, each having answered): the W threads carry the work
  * and this thread only hands out tasks, since on W cores a (W + 1)-th lane only slows the others
  * (measured, 2 cores, a 64-start search: W threads 0.75–0.83 s, this thread beside one thread
@@ -12,7 +14,7 @@
  * end this thread also runs tasks still queued in a thread; the first result to arrive is kept.
  * Every task is deterministic, so which lane runs it never changes a result.
  */
-import { availableParallelism } from 'node:os';
+import { availableParallelism, cpus } from 'node:os';
 import { InputError } from './errors.js';
 import work, { type WorkerResponse, type WorkerResult, type WorkerTask } from './worker.js';
 
@@ -26,8 +28,32 @@ function unwrap(r: WorkerResponse): WorkerResult {
   throw new Error(`worker failed: ${r.name}: ${r.message}`);
 }
 
-/** A thread takes roughly this long to load the engine here (0.1–0.3 s measured on 2 cores), before its JIT warms up. */
-const THREAD_START_DELAY_MS = 300;
+/**
+ * When a cold pool first decides whether threads pay: by then this thread's pace is known from its
+ * first tasks (a design start takes 20–80 ms) and the processors' idle time has been sampled.
+ */
+const DECISION_MS = 150;
+/** Later decisions, while much work remains but no processor was idle: the machine's load changes. */
+const RECHECK_MS = 500;
+/**
+ * Idle processor time (in processors) a cold pool needs to see before it starts threads. Another
+ * thread only pays where a processor would otherwise idle: on a machine whose processors other work
+ * keeps busy, a fresh thread's engine load and JIT warm-up (a third more CPU time in all) only
+ * slow this thread down. Measured from the command line on the shared 2-core VM at load 4:
+ * 64 starts of the intersubband scenario took 6.8 s with a thread, 4.6 s without.
+ */
+const MIN_SPARE_PROCESSORS = 0.5;
+
+/**
+ * Whether starting threads pays in a cold pool: enough work left (ms at this thread's pace) to
+ * repay a thread's engine load and JIT warm-up, and a processor that idles beside this thread
+ * (spare processors measured over the last window). Pure, for the decision's tests.
+ */
+export const threadsPay = (remaining_ms: number, spareProcessors: number): boolean =>
+  remaining_ms > MIN_REMAINING_FOR_THREADS_MS && spareProcessors >= MIN_SPARE_PROCESSORS;
+
+/** Idle time of all processors so far (ms, summed over processors; os.cpus). */
+const idleMs = (): number => cpus().reduce((a, c) => a + c.times.idle, 0);
 /**
  * In a process without threads yet, they are started only when, at this thread's pace so far,
  * more than this much work remains: less does not repay loading and warming them up. Measured on
@@ -201,12 +227,30 @@ export async function runTasks(tasks: readonly WorkerTask[], options: PoolOption
     // instead of waiting for this thread to hand it one.
     for (let k = 0; k < lanes; k++) lane().catch(settle);
   };
+  // Threads start when the work left (at this thread's pace, plus earlier calls' work in this
+  // process) would repay them and a processor has been idle beside this thread; while the work left
+  // is large and none is idle, the question is asked again every RECHECK_MS.
   const started = performance.now();
-  const timer = setTimeout(() => {
-    const elapsed = performance.now() - started;
-    const remaining = done > 0 ? (elapsed / done) * (tasks.length - done) : Infinity;
-    if (options.eager || kept || remaining + earlierWorkMs > MIN_REMAINING_FOR_THREADS_MS) startThreads().catch(settle);
-  }, options.eager || kept ? 0 : THREAD_START_DELAY_MS);
+  let timer: ReturnType<typeof setTimeout> | undefined;
+  const decide = (since: number, idleSince: number): void => {
+    timer = undefined;
+    if (done === tasks.length) return;
+    const now = performance.now();
+    const elapsed = now - started;
+    // With no task finished yet, each one takes longer than the time so far.
+    const remaining = (elapsed / Math.max(done, 1)) * (tasks.length - done - (done === 0 ? 1 : 0));
+    if (remaining + earlierWorkMs <= MIN_REMAINING_FOR_THREADS_MS) return;
+    if (threadsPay(remaining + earlierWorkMs, (idleMs() - idleSince) / (now - since))) startThreads().catch(settle);
+    else {
+      const idleNow = idleMs();
+      timer = setTimeout(() => decide(now, idleNow), RECHECK_MS);
+    }
+  };
+  if (options.eager || kept) timer = setTimeout(() => startThreads().catch(settle), 0);
+  else {
+    const idle0 = idleMs();
+    timer = setTimeout(() => decide(started, idle0), DECISION_MS);
+  }
   try {
     here().catch(settle);
     if (tasks.length > 0) await finished;

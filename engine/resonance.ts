@@ -38,7 +38,7 @@
  */
 import { HBAR2_OVER_2M0 } from './constants.js';
 import type { BandProfile } from './profile.js';
-import { MASS_FLOOR, twoBandFactor, unpack, type Unpacked } from './solver1d.js';
+import { MASS_FLOOR, requireFlat, twoBandFactor, unpack, type Unpacked } from './solver1d.js';
 
 const C = HBAR2_OVER_2M0;
 
@@ -673,7 +673,7 @@ function poleNear(full: Unpacked, Er: number, Ei: number, cap: number, anchor_nm
 
 /** The solution at a pole of `profile`, joined at its anchor on the trimmed profile. */
 function joinAt(profile: BandProfile, pole: Pole, w: Work): Joined {
-  const d = trimmed(unpack(profile), pole.energy, pole, pole.anchor_nm);
+  const d = trimmed(requireFlat(unpack(profile), 'resonances'), pole.energy, pole, pole.anchor_nm);
   return join(d, pole.energy, pole.imaginary, pole, boundaryNear(d, pole.anchor_nm), w);
 }
 
@@ -703,7 +703,7 @@ export interface ResonanceSeed {
  */
 export function siegertPole(profile: BandProfile, guess_eV: number, guessImaginary_eV: number, anchor_nm: number, reach_eV: number): { pole: Pole | undefined; evaluations: number } {
   const w = newWork();
-  const pole = poleNear(unpack(profile), guess_eV, guessImaginary_eV, reach_eV, anchor_nm, w);
+  const pole = poleNear(requireFlat(unpack(profile), 'resonances'), guess_eV, guessImaginary_eV, reach_eV, anchor_nm, w);
   return { pole, evaluations: w.evaluations };
 }
 
@@ -729,7 +729,7 @@ export function followResonance(build: (fraction: number) => BandProfile, seed: 
   let pole: Pole | undefined;
   while (lambda < 1) {
     const next = Math.min(1, lambda + dl);
-    const d = unpack(build(next));
+    const d = requireFlat(unpack(build(next)), 'resonances');
     const t = prev ? (next - lambda) / (lambda - prev.lambda) : 0;
     const pr = Er + t * (Er - (prev?.Er ?? Er));
     const pi = Ei + t * (Ei - (prev?.Ei ?? Ei));

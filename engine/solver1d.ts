@@ -20,20 +20,26 @@
  * S. Pruess, SIAM J. Numer. Anal. 10, 55 (1973) for piecewise-constant coefficients). The zeros of u
  * inside a slice are counted exactly: an oscillatory slice of phase kL holds floor(kL/π) or one more,
  * decided by the sign change of u across it; an evanescent or flat slice holds at most one.
- * Each eigenvalue is isolated by bisection on N(E) and refined by Brent's method (R. P. Brent,
- * Algorithms for Minimization without Derivatives (1973), ch. 4) on the continuous, increasing
- * mismatch θ(z_R) − θ_R − nπ. θ′ grows with E wherever m(E) and E − V both do, which holds for
+ * Each eigenvalue is isolated by bisection on N(E) and refined by safeguarded Newton steps on the
+ * continuous, increasing mismatch θ(z_R) − θ_R − nπ, whose E-derivative is an integral of the same
+ * sweep (see sweepMatched). θ′ grows with E wherever m(E) and E − V both do, which holds for
  * alpha ≥ 0 with the floored two-band mass (positive and non-decreasing in E; Sturm comparison
  * theorem); the start angle rises and θ_R falls with E as well. So θ(z_R) − θ_R increases strictly
  * with E and no state is missed or counted twice. A negative alpha would lose that guarantee and is
- * refused as input. Brent refines on the same mismatch taken at an interior boundary (the left
+ * refused as input. Newton refines on the same mismatch taken at an interior boundary (the left
  * solution carried to it, the right one carried back), which has the same roots but stays smooth
  * where the state lives: at the right edge of a stack clad in thick barriers the mismatch is a step
- * too sharp to interpolate, and Brent would fall back to bisection (see sweepMatched).
+ * too sharp to follow (see sweepMatched).
+ *
+ * Linear slices (graded layers, fields; BandProfile slices with a gradient) are carried with Airy
+ * functions in a mass-weighted coordinate (see carryLinear); their zeros are counted the same way,
+ * from the phase of Ai + i·Bi across the slice (engine/airy.ts), so the counting guarantee holds for
+ * them too: θ′ in the slice's coordinate is m̄ cos²θ − (Q/m̄) sin²θ with m̄ and −Q non-decreasing in E.
  *
  * Units: energies eV, lengths nm, masses m0. Holes are solved in the particle sense of BandProfile.
  */
 
+import { airyTransfer, newAiryTransfer } from './airy.js';
 import { HBAR2_OVER_2M0 } from './constants.js';
 import { badValue, type InputError } from './errors.js';
 import type { BandName, BandProfile } from './profile.js';
@@ -125,6 +131,14 @@ export interface Unpacked {
   readonly V: Float64Array;
   readonly mass: Float64Array;
   readonly alpha: Float64Array;
+  /** Gradients dV/dz (eV/nm), d(mass)/dz, d(alpha)/dz per slice: all 0 for a flat slice; else V, mass, alpha are centre values. */
+  readonly gV: Float64Array;
+  readonly gM: Float64Array;
+  readonly gA: Float64Array;
+  /** Per slice: 1 for a linear slice (profile gradient given), 0 for a flat one. */
+  readonly isLinear: Uint8Array;
+  /** Whether any slice is linear. */
+  readonly linear: boolean;
   /** z of boundary j (j = 0..n), nm. */
   readonly edge: Float64Array;
   readonly VL: number; readonly mL: number; readonly aL: number;
@@ -133,10 +147,14 @@ export interface Unpacked {
   readonly barrier: number;
 }
 
-/** Scratch for one sweep: count of eigenvalues below E and the total Prüfer mismatch θ(z_R) − θ_R. */
+/**
+ * Scratch for one sweep: count of eigenvalues below E and the total Prüfer mismatch θ(z_R) − θ_R
+ * (or the mismatch at a matching boundary, with its E-derivative `slope` when tracked).
+ */
 interface Sweep {
   count: number;
   angle: number;
+  slope: number;
 }
 
 const isFiniteNumber = (x: unknown): x is number => typeof x === 'number' && Number.isFinite(x);
@@ -151,7 +169,12 @@ export function unpack(profile: BandProfile): Unpacked {
   const V = new Float64Array(n);
   const mass = new Float64Array(n);
   const alpha = new Float64Array(n);
+  const gV = new Float64Array(n);
+  const gM = new Float64Array(n);
+  const gA = new Float64Array(n);
+  const isLinear = new Uint8Array(n);
   const edge = new Float64Array(n + 1);
+  let linear = false;
   const checkRegion = (where: string, v: number, m: number, a: number): void => {
     if (!isFiniteNumber(v)) throw bad(`${where}.V`, 'must be a finite potential in eV', v, 'fix the band profile');
     if (!isFiniteNumber(m) || m <= 0) throw bad(`${where}.mass`, 'must be a positive mass in m0', m, 'fix the band profile');
@@ -172,64 +195,133 @@ export function unpack(profile: BandProfile): Unpacked {
     V[i] = s.V;
     mass[i] = s.mass;
     alpha[i] = s.alpha;
+    if (s.gradient) {
+      const g = s.gradient;
+      for (const [key, value] of [['V', g.V], ['mass', g.mass], ['alpha', g.alpha]] as const) {
+        if (!isFiniteNumber(value)) throw bad(`${where}.gradient.${key}`, 'must be a finite gradient per nm', value, 'omit gradient for a flat slice');
+      }
+      // The mass and alpha must stay valid across the slice, not only at its centre.
+      const h = 0.5 * s.width_nm;
+      if (!(Math.min(s.mass - h * g.mass, s.mass + h * g.mass) > 0)) throw bad(`${where}.gradient.mass`, 'must keep the mass positive across the slice', g.mass, 'fix the band profile');
+      if (!(Math.min(s.alpha - h * g.alpha, s.alpha + h * g.alpha) >= 0)) throw bad(`${where}.gradient.alpha`, 'must keep alpha ≥ 0 across the slice', g.alpha, 'fix the band profile');
+      gV[i] = g.V;
+      gM[i] = g.mass;
+      gA[i] = g.alpha;
+      isLinear[i] = 1;
+      linear = true;
+    }
     edge[i + 1] = edge[i]! + s.width_nm;
-    if (s.V < Vmin) Vmin = s.V;
+    const low = s.V - 0.5 * Math.abs(gV[i]!) * s.width_nm;
+    if (low < Vmin) Vmin = low;
   }
   const barrier = Math.min(left.V, right.V);
   return {
-    n, width, V, mass, alpha, edge,
+    n, width, V, mass, alpha, gV, gM, gA, isLinear, linear, edge,
     VL: left.V, mL: left.mass, aL: left.alpha,
     VR: right.V, mR: right.mass, aR: right.alpha,
     Vmin, barrier,
   };
 }
 
-/** (u, p) of a solution at a slice boundary and the zeros of u passed so far; scratch of the sweeps. */
+/** Scratch of the Airy transfer across a sloped slice (sweeps are synchronous, so one suffices). */
+const AIRY = newAiryTransfer();
+
+/**
+ * The profile itself when every slice is flat; a sloped one (buildBandProfile's `linear`) is refused:
+ * wavefunctions, resonances and the observables sample piecewise-constant slices.
+ */
+export function requireFlat(d: Unpacked, what: string): Unpacked {
+  if (!d.linear) return d;
+  const i = d.isLinear.indexOf(1);
+  throw bad(`profile.slices[${i}].gradient`, `must be absent for ${what}, which works on flat slices`, 'a linear slice', 'build the profile without the linear option (slices of at most slice_nm)');
+}
+
+/**
+ * (u, p) of a solution at a slice boundary and the zeros of u passed so far; scratch of the sweeps.
+ * With `track`, `integral` accumulates ∫(u²/C + ∂m/∂E·p²) dz from the solution's outer edge, in the
+ * scale of (u, p): the E-derivative of its Prüfer angle is integral/(u² + p²) (see sweepMatched).
+ */
 interface Carry {
   u: number;
   p: number;
   zeros: number;
+  track: boolean;
+  integral: number;
+}
+
+const newCarry = (): Carry => ({ u: 0, p: 0, zeros: 0, track: false, integral: 0 });
+
+/** ∂m/∂E (m0/eV) of the two-band mass mass·(1 + alpha (E − V)), 0 where it sits on its floor. */
+const massSlope = (mass: number, alpha: number, dV: number): number => (1 + alpha * dV > MASS_FLOOR ? mass * alpha : 0);
+
+/**
+ * ∫0^L (u²/C + mE p²) of the constant-slice solution u = u0 c + m q S, p = q c − (s/m) u0 S
+ * (q = ±p0 by direction): the integrals of c², cS and S² are (L + cS)/2, S²/2 and iSS. A long
+ * evanescent slice passes its values scaled by e^{−2κL} (L then multiplied by e^{−2κL} too).
+ */
+function constantPart(u0: number, q: number, m: number, s: number, mE: number, L: number, c: number, S: number, iSS: number): number {
+  const icc = 0.5 * (L + c * S);
+  const ics = 0.5 * S * S;
+  const g = s / m;
+  const uu = u0 * u0 * icc + 2 * u0 * m * q * ics + m * m * q * q * iSS;
+  const pp = q * q * icc - 2 * q * g * u0 * ics + g * g * u0 * u0 * iSS;
+  return uu / C + mE * pp;
 }
 
 /**
  * Carries (u, p) exactly across slice i at energy E, rightwards (dir = 1) or leftwards (dir = −1),
- * and adds the zeros of u inside the slice. Allocation-free: this is the inner loop of every search.
+ * and adds the zeros of u inside the slice (and, with st.track, the slice's part of the integral).
+ * Allocation-free: this is the inner loop of every search.
  */
 function carry(d: Unpacked, E: number, i: number, dir: 1 | -1, st: Carry): void {
   const L = d.width[i]!;
   const dV = E - d.V[i]!;
   const m = d.mass[i]! * twoBandFactor(d.alpha[i]!, dV);
   const s = (m * dV) / C;
-  const { u, p } = st;
+  const { u, p, track } = st;
   let u1: number;
   let p1: number;
   let whole = 0;
-  if (s > 0) {
+  // Scale of the slice's output relative to its input (long evanescent slices drop e^{κL}).
+  let keep = 1;
+  let part = 0;
+  if (d.isLinear[i] === 1) {
+    whole = carryLinear(d, E, i, dir, u, p, st);
+    u1 = st.u;
+    p1 = st.p;
+  } else if (s > 0) {
     const k = Math.sqrt(s);
     const y = k * L;
     const c = Math.cos(y);
-    const S = (dir * Math.sin(y)) / k;
-    u1 = u * c + m * p * S;
-    p1 = p * c - (s / m) * u * S;
+    const S = Math.sin(y) / k;
+    u1 = u * c + m * p * dir * S;
+    p1 = p * c - (s / m) * u * dir * S;
     whole = Math.floor(y / PI);
+    if (track) part = constantPart(u, dir * p, m, s, massSlope(d.mass[i]!, d.alpha[i]!, dV), L, c, S, intS2(s, L, c, S));
   } else if (s < 0) {
     const kap = Math.sqrt(-s);
     const y = kap * L;
     if (y < SCALED_EVANESCENT) {
       const c = Math.cosh(y);
-      const S = (dir * Math.sinh(y)) / kap;
-      u1 = u * c + m * p * S;
-      p1 = p * c - (s / m) * u * S;
+      const S = Math.sinh(y) / kap;
+      u1 = u * c + m * p * dir * S;
+      p1 = p * c - (s / m) * u * dir * S;
+      if (track) part = constantPart(u, dir * p, m, s, massSlope(d.mass[i]!, d.alpha[i]!, dV), L, c, S, intS2(s, L, c, S));
     } else {
       const q = Math.exp(-2 * y);
       const ch = 0.5 * (1 + q);
-      const sh = dir * 0.5 * (1 - q);
-      u1 = u * ch + (m * p * sh) / kap;
-      p1 = p * ch + (kap / m) * u * sh;
+      const sh = 0.5 * (1 - q);
+      u1 = u * ch + (m * p * dir * sh) / kap;
+      p1 = p * ch + (kap / m) * u * dir * sh;
+      if (track) {
+        keep = q;
+        part = constantPart(u, dir * p, m, s, massSlope(d.mass[i]!, d.alpha[i]!, dV), L * q, ch, sh / kap, (L * q - (ch * sh) / kap) / (2 * s));
+      }
     }
   } else {
     u1 = u + dir * m * p * L;
     p1 = p;
+    if (track) part = constantPart(u, dir * p, m, 0, massSlope(d.mass[i]!, d.alpha[i]!, dV), L, 1, L, (L * L * L) / 3);
   }
   // Zeros inside the slice: `whole` full half-periods, plus one more when the observed sign change
   // disagrees with the parity of `whole` (exact: floor((β + kL)/π) with β ∈ [0, π) the initial phase).
@@ -241,25 +333,126 @@ function carry(d: Unpacked, E: number, i: number, dir: 1 | -1, st: Carry): void 
     const flipped = (u > 0) !== (u1 > 0);
     st.zeros += whole + (flipped !== ((whole & 1) === 1) ? 1 : 0);
   }
+  if (track && d.isLinear[i] !== 1) st.integral = st.integral * keep + part;
   const a = Math.abs(u1) + Math.abs(p1);
   if (a > BIG || a < SMALL) {
     u1 /= a;
     p1 /= a;
+    if (track) st.integral /= a * a;
   }
   st.u = u1;
   st.p = p1;
 }
 
+/** ξψ² − ψ_ξ², whose difference is ∫ψ² dξ for ψ_ξξ = ξψ. */
+const airySquare = (x: number, v: number, w: number): number => x * v * v - w * w;
+/** (2ψψ_ξ − ξ²ψ² + ξψ_ξ²)/3, whose difference is ∫ψ_ξ² dξ for ψ_ξξ = ξψ. */
+const airySlopeSquare = (x: number, v: number, w: number): number => (2 * v * w - x * x * v * v + x * w * w) / 3;
+
+/** Gauss–Legendre 3-point nodes on [−1, 1] and weights (Abramowitz & Stegun 25.4.29). */
+const GL_T = Math.sqrt(0.6);
+const GL_W = [5 / 9, 8 / 9, 5 / 9];
+/** Scratch of carryLinear: mass and (V − E)/C at the three nodes. */
+const NODE_M = new Float64Array(3);
+const NODE_W = new Float64Array(3);
+
+/**
+ * Carries (u, p) across linear slice i (V, mass, alpha linear in z) into st.u, st.p; returns the
+ * number of whole half-periods of the phase passed (the zero count before the parity check).
+ *
+ * In the mass-weighted coordinate y = ∫ m(z, E)/m̄ dz (m̄ the slice's mean mass, so the slice keeps
+ * its length L in y) the equation −C (ψ′/m)′ + (V − E) ψ = 0 becomes ψ_yy = Q(y) ψ with
+ * Q = m̄² (V − E)/(C m), and p = ψ′/m = ψ_y/m̄: the mass variation is carried exactly, and only
+ * Q's departure from a straight line is left. Q is replaced by its least-squares line over the
+ * slice, Q0 + Q1 (y − y_c), Q0 = (m̄/L) ∫(V − E)/C dz and Q1 = (12/L³) ∫(y − y_c) m̄ (V − E)/C dz
+ * (3-point Gauss–Legendre, exact for the quadratic m through the nodes); the remainder has zero
+ * mean and zero first moment, so the energy errs at fourth order in the slice (a constant-mass
+ * slice would err at second order: 1e-7 eV for the 64 pieces of a 15 nm grade). The line is solved
+ * exactly by Airy functions: with β = Q1^{1/3}, ξ = β (y − y_c) + Q0/β² obeys ψ_ξξ = ξ ψ, and
+ * (ψ, p) = (ψ, (β/m̄) ψ_ξ). A line too flat to resolve (|Q1| L below 1e-13 of |Q0| + 1/L²) is the
+ * constant slice ψ_yy = Q0 ψ. The mass of each node is the two-band m(E − V) with its floor.
+ */
+function carryLinear(d: Unpacked, E: number, i: number, dir: 1 | -1, u: number, p: number, st: Carry): number {
+  const L = d.width[i]!;
+  const h = 0.5 * L;
+  const tau = GL_T * h;
+  const Vc = d.V[i]!;
+  for (let k = 0; k < 3; k++) {
+    const t = (k - 1) * tau;
+    const Vk = Vc + d.gV[i]! * t;
+    NODE_M[k] = (d.mass[i]! + d.gM[i]! * t) * twoBandFactor(d.alpha[i]! + d.gA[i]! * t, E - Vk);
+    NODE_W[k] = (Vk - E) / C;
+  }
+  const mLeft = NODE_M[0]!;
+  const mMid = NODE_M[1]!;
+  const mRight = NODE_M[2]!;
+  const mbar = (GL_W[0]! * mLeft + GL_W[1]! * mMid + GL_W[2]! * mRight) * 0.5;
+  // m(t) = c0 + c1 t + c2 t² through the nodes; y(t) = ∫0^t m/m̄, y_c = (y(h) + y(−h))/2.
+  const c1 = (mRight - mLeft) / (2 * tau);
+  const c2 = (mRight + mLeft - 2 * mMid) / (2 * tau * tau);
+  const yc = (c1 * h * h) / (2 * mbar);
+  let q0 = 0;
+  let q1 = 0;
+  for (let k = 0; k < 3; k++) {
+    const t = (k - 1) * tau;
+    const y = (mMid * t + (c1 * t * t) / 2 + (c2 * t * t * t) / 3) / mbar;
+    q0 += GL_W[k]! * NODE_W[k]!;
+    q1 += GL_W[k]! * (y - yc) * NODE_W[k]!;
+  }
+  // ∫ dz = h Σ w_k; Q0 = m̄ ∫W dz / L, Q1 = 12 m̄ ∫(y − y_c) W dz / L³.
+  const Q0 = (mbar * h * q0) / L;
+  const Q1 = (12 * mbar * h * q1) / (L * L * L);
+  // ∂m̄/∂E for the derivative integral, from the centre (an estimate: Newton only needs its size).
+  const mE = massSlope(d.mass[i]!, d.alpha[i]!, E - Vc);
+  if (Math.abs(Q1) * L <= 1e-13 * (Math.abs(Q0) + 1 / (L * L))) {
+    const sq = -Q0;
+    const c = cFun(sq, L);
+    const S = sFun(sq, L);
+    st.u = u * c + mbar * p * dir * S;
+    st.p = p * c - (sq / mbar) * u * dir * S;
+    if (st.track) st.integral += constantPart(u, dir * p, mbar, sq, mE, L, c, S, intS2(sq, L, c, S));
+    return sq > 0 ? Math.floor((Math.sqrt(sq) * L) / PI) : 0;
+  }
+  const beta = Math.cbrt(Q1);
+  const span = beta * L;
+  const xiLeft = -0.5 * span + Q0 / (beta * beta);
+  const t = AIRY;
+  const xi0 = dir === 1 ? xiLeft : xiLeft + span;
+  airyTransfer(xi0, dir * span, t);
+  const d0 = (mbar / beta) * p;
+  const u1 = t.uu * u + t.ud * d0;
+  const d1 = t.du * u + t.dd * d0;
+  st.u = u1;
+  st.p = (beta / mbar) * d1;
+  if (st.track) {
+    // ∫ψ² dξ = [ξψ² − ψ_ξ²] and ∫ψ_ξ² dξ = [(2ψψ_ξ − ξ²ψ² + ξψ_ξ²)/3] for ψ_ξξ = ξψ; dz ≈ dy = dξ/β.
+    const xi1 = xi0 + dir * span;
+    const keep = Math.exp(-2 * t.gained);
+    const uu = (dir / beta) * (airySquare(xi1, u1, d1) - keep * airySquare(xi0, u, d0));
+    const pp = ((dir * beta) / (mbar * mbar)) * (airySlopeSquare(xi1, u1, d1) - keep * airySlopeSquare(xi0, u, d0));
+    st.integral = st.integral * keep + uu / C + mE * pp;
+  }
+  return Math.floor(Math.abs(t.dtheta) / PI);
+}
+
 /** The Prüfer angle of (u, p) reduced to [0, π): the sign of a solution is free. */
 const reducedAngle = (u: number, p: number): number => (u < 0 || (u === 0 && p < 0) ? Math.atan2(-u, -p) : Math.atan2(u, p));
 
-/** The solution decaying into the left outer region, at its edge (E ≤ its potential). */
-function startLeft(d: Unpacked, E: number, st: Carry): void {
-  const mLe = d.mL * twoBandFactor(d.aL, E - d.VL);
+/**
+ * The solution decaying into an outer region (potential V, E ≤ V), at its edge: (1, ±κ/m), and
+ * with st.track the integral over the region, ∫(u²/C + ∂m/∂E p²) = (1/C + ∂m/∂E κ²/m²)/(2κ).
+ */
+function startOuter(mass: number, alpha: number, V: number, E: number, side: 1 | -1, st: Carry): void {
+  const m = mass * twoBandFactor(alpha, E - V);
+  const kap = Math.sqrt(Math.max(0, (m * (V - E)) / C));
   st.u = 1;
-  st.p = Math.sqrt(Math.max(0, mLe * (d.VL - E) / C)) / mLe;
+  st.p = (side * kap) / m;
   st.zeros = 0;
+  st.integral = st.track ? (1 / C + (massSlope(mass, alpha, E - V) * kap * kap) / (m * m)) / (2 * kap) : 0;
 }
+
+/** The solution decaying into the left outer region, at its edge (E ≤ its potential). */
+const startLeft = (d: Unpacked, E: number, st: Carry): void => startOuter(d.mL, d.aL, d.VL, E, 1, st);
 
 /**
  * One sweep from left to right at energy E (≤ barrier): fills `out` with N(E) and θ(z_R) − θ_R.
@@ -292,21 +485,28 @@ function sweep(d: Unpacked, E: number, out: Sweep, st: Carry): void {
  * root finder can use (A. Messiah, Quantum Mechanics I (1961), ch. III, for matching in the
  * classically allowed region; J. D. Pryce, Numerical Solution of Sturm–Liouville Problems (1993)
  * for the interior matching point of Prüfer shooting).
+ *
+ * With st.track also its E-derivative into out.slope: differentiating u′ = m p, p′ = ((V − E)/C) u
+ * in E gives (p ∂u/∂E − u ∂p/∂E)′ = u²/C + (∂m/∂E) p², and θ = atan2(u, p) moves by
+ * (p ∂u/∂E − u ∂p/∂E)/ρ², so ∂θ_L/∂E = ∫_{−∞}^{z_j}(u²/C + ∂m/∂E p²)/ρ_L² and ∂θ_R/∂E is minus the
+ * same integral from z_j to +∞ over ρ_R² (the Prüfer-angle form of the Hellmann–Feynman identity;
+ * Pryce (1993), ch. 2); both parts are positive. Exact on flat slices; on linear slices it takes
+ * dz ≈ dy of the mass-weighted coordinate and ∂m/∂E at the centre (Newton then converges a little
+ * slower than quadratically, never to another root).
  */
 function sweepMatched(d: Unpacked, E: number, j: number, out: Sweep, st: Carry): void {
   startLeft(d, E, st);
   for (let i = 0; i < j; i++) carry(d, E, i, 1, st);
   const thetaL = st.zeros * PI + reducedAngle(st.u, st.p);
-  const mRe = d.mR * twoBandFactor(d.aR, E - d.VR);
-  st.u = 1;
-  st.p = -Math.sqrt(Math.max(0, mRe * (d.VR - E) / C)) / mRe;
-  st.zeros = 0;
+  const slopeL = st.integral / (st.u * st.u + st.p * st.p);
   // θ_R(z_R) = atan2(mRe, −kR) lies in [π/2, π), the reduced angle of (1, −kR/mRe).
+  startOuter(d.mR, d.aR, d.VR, E, -1, st);
   for (let i = d.n - 1; i >= j; i--) carry(d, E, i, -1, st);
   // A zero exactly at z_j is counted by carry and sits at θ_R = −(zeros − 1)π, not at the reduced 0 less zeros·π.
   const thetaRj = st.u === 0 ? -(st.zeros - 1) * PI : reducedAngle(st.u, st.p) - st.zeros * PI;
   out.count = -1;
   out.angle = thetaL - thetaRj;
+  out.slope = st.track ? slopeL + st.integral / (st.u * st.u + st.p * st.p) : NaN;
 }
 
 /**
@@ -355,47 +555,55 @@ function deepestBoundary(d: Unpacked): number {
 }
 
 /**
- * Brent iterations on the first matching boundary before it is chosen again: a smooth mismatch
- * converges in fewer. Over the scenarios in runs/ and 300 random stacks, 10 spent the fewest sweeps
- * of 6, 8 and 10 (pump-976 search solve: e1 28, hh1 14, lh1 15 sweeps, against 103, 45 and 48 with
- * the right-edge mismatch alone).
+ * Newton steps on the first matching boundary before it is chosen again: at a boundary where the
+ * state is small the mismatch is a steep step that Newton crosses only by bisection. Measured over
+ * the scenarios in runs/, a state matched at the deepest well's edge converges in 3–5 steps.
  */
-const FIRST_TRY_ITERATIONS = 10;
-/** Brent's bound is about (log2((b − a)/tol))² steps; this is never reached with a true bracket. */
-const MAX_ITERATIONS = 200;
+const FIRST_TRY_STEPS = 6;
+/** Safeguarded Newton halves the bracket at worst every other step; this is never reached with a true bracket. */
+const MAX_STEPS = 200;
 
 /**
- * Eigenvalue n in [a, b] (fa, fb: mismatches at the right edge, fa ≤ 0 < fb). Brent on the mismatch
- * at boundary j (the deepest well's edge), smooth when the state lives there; if that has not
- * converged after a few steps (the state lives in another well), Brent goes on from the bracket
- * reached, on the mismatch at the boundary matchingBoundary picks inside it. Any boundary gives
- * the same root; the choice only sets how smooth the function is and so how fast Brent converges.
+ * Eigenvalue n in [a, b], isolated by the counts (the mismatch at any boundary is ≤ 0 at a and > 0
+ * at b). Newton's method on the mismatch at boundary j (the deepest well's edge) with its analytic
+ * derivative (sweepMatched), safeguarded by the bracket: a step that would leave the bracket, as
+ * the bracket shrinks on every evaluation by the mismatch's sign, is a bisection (W. H. Press et
+ * al., Numerical Recipes, 3rd ed. (2007), §9.4, rtsafe). If it has not converged after a few steps
+ * (the state lives in another well), the boundary matchingBoundary picks inside the bracket takes
+ * over. Any boundary gives the same root; the choice only sets how smooth the mismatch is.
+ * Converged when a Newton step is below tol/2 + 2ε|E|: the error is then of the order of its square.
  */
-function refine(d: Unpacked, n: number, j: number, a: number, fa: number, b: number, fb: number, tol: number,
-  ws: Sweep, st: Carry, work: { evaluations: number }, bracket: Float64Array, logs: Float64Array): number {
-  /** Mismatches at boundary k at the ends of [lo, hi], into bracket[1] and bracket[3]. */
-  const ends = (k: number, lo: number, hi: number): void => {
-    sweepMatched(d, lo, k, ws, st);
-    bracket[1] = ws.angle - n * PI;
-    sweepMatched(d, hi, k, ws, st);
-    bracket[3] = ws.angle - n * PI;
-    work.evaluations += 2;
-  };
-  if (j === d.n) {
-    bracket[1] = fa;
-    bracket[3] = fb;
-  } else {
-    ends(j, a, b);
+function refine(d: Unpacked, n: number, j: number, a: number, b: number, tol: number,
+  ws: Sweep, st: Carry, work: { evaluations: number }, logs: Float64Array): number {
+  let lo = a;
+  let hi = b;
+  let k = j;
+  let x = 0.5 * (a + b);
+  st.track = true;
+  try {
+    for (let step = 0; step < MAX_STEPS; step++) {
+      if (step === FIRST_TRY_STEPS) {
+        st.track = false;
+        k = matchingBoundary(d, x, st, logs);
+        work.evaluations++;
+        st.track = true;
+      }
+      sweepMatched(d, x, k, ws, st);
+      work.evaluations++;
+      const f = ws.angle - n * PI;
+      if (f === 0) return x;
+      if (f < 0) lo = x;
+      else hi = x;
+      const tol1 = 2 * Number.EPSILON * Math.abs(x) + 0.5 * tol;
+      const newton = x - f / ws.slope;
+      if (Math.abs(newton - x) <= tol1) return Math.min(Math.max(newton, lo), hi);
+      x = newton > lo && newton < hi ? newton : 0.5 * (lo + hi);
+      if (hi - lo <= 2 * tol1) return 0.5 * (lo + hi);
+    }
+    return 0.5 * (lo + hi);
+  } finally {
+    st.track = false;
   }
-  const first = brent(d, n, j, a, bracket[1]!, b, bracket[3]!, tol, FIRST_TRY_ITERATIONS, ws, st, work, bracket);
-  if (!Number.isNaN(first)) return first;
-  const lo = bracket[0]!;
-  const hi = bracket[2]!;
-  const k = matchingBoundary(d, 0.5 * (lo + hi), st, logs);
-  work.evaluations++;
-  if (k !== j) ends(k, lo, hi);
-  const root = brent(d, n, k, lo, bracket[1]!, hi, bracket[3]!, tol, MAX_ITERATIONS, ws, st, work, bracket);
-  return Number.isNaN(root) ? 0.5 * (bracket[0]! + bracket[2]!) : root;
 }
 
 function checkOptions(options: SolveBandOptions | undefined): { maxStates: number; tol: number } {
@@ -411,80 +619,6 @@ function checkOptions(options: SolveBandOptions | undefined): { maxStates: numbe
 }
 
 /**
- * Brent's zero finder on f(E) = sweepMatched(E, j).angle − nπ in [a, b] with fa ≤ 0 < fb. Returns NaN
- * after `maxIterations` evaluations without convergence, with the bracket reached in `bracket`.
- * R. P. Brent, Algorithms for Minimization without Derivatives (1973), ch. 4 (procedure zero).
- */
-function brent(d: Unpacked, n: number, j: number, a0: number, fa0: number, b0: number, fb0: number, tol: number, maxIterations: number,
-  ws: Sweep, st: Carry, work: { evaluations: number }, bracket: Float64Array): number {
-  let a = a0;
-  let fa = fa0;
-  let b = b0;
-  let fb = fb0;
-  // The counts guarantee fa ≤ 0 < fb up to rounding of the angle; a bracket lost to rounding means the
-  // root sits on that end.
-  if (fa >= 0) return a;
-  if (fb <= 0) return b;
-  let c = a;
-  let fc = fa;
-  let e = b - a;
-  let dd = e;
-  const target = n * PI;
-  for (let iteration = 0; iteration < maxIterations; iteration++) {
-    if (Math.abs(fc) < Math.abs(fb)) {
-      a = b; b = c; c = a;
-      fa = fb; fb = fc; fc = fa;
-    }
-    const tol1 = 2 * Number.EPSILON * Math.abs(b) + 0.5 * tol;
-    const m = 0.5 * (c - b);
-    if (Math.abs(m) <= tol1 || fb === 0) return b;
-    if (Math.abs(e) < tol1 || Math.abs(fa) <= Math.abs(fb)) {
-      dd = m;
-      e = m;
-    } else {
-      let pp: number;
-      let qq: number;
-      const s = fb / fa;
-      if (a === c) {
-        pp = 2 * m * s;
-        qq = 1 - s;
-      } else {
-        const q0 = fa / fc;
-        const r = fb / fc;
-        pp = s * (2 * m * q0 * (q0 - r) - (b - a) * (r - 1));
-        qq = (q0 - 1) * (r - 1) * (s - 1);
-      }
-      if (pp > 0) qq = -qq;
-      else pp = -pp;
-      if (2 * pp < 3 * m * qq - Math.abs(tol1 * qq) && pp < Math.abs(0.5 * e * qq)) {
-        e = dd;
-        dd = pp / qq;
-      } else {
-        dd = m;
-        e = m;
-      }
-    }
-    a = b;
-    fa = fb;
-    b += Math.abs(dd) > tol1 ? dd : m > 0 ? tol1 : -tol1;
-    sweepMatched(d, b, j, ws, st);
-    work.evaluations++;
-    fb = ws.angle - target;
-    if ((fb > 0 && fc > 0) || (fb <= 0 && fc <= 0)) {
-      c = a;
-      fc = fa;
-      e = b - a;
-      dd = e;
-    }
-  }
-  // Out of iterations: the bracket reached, lower end (f ≤ 0) first, for a restart.
-  const bLow = fb <= 0;
-  bracket[0] = bLow ? b : c; bracket[1] = bLow ? fb : fc;
-  bracket[2] = bLow ? c : b; bracket[3] = bLow ? fc : fb;
-  return NaN;
-}
-
-/**
  * Number of bound states with particle energy strictly below `energy` (eV).
  *
  * Sturm oscillation count of the exact piecewise-constant transfer sweep (see the module comment).
@@ -496,8 +630,8 @@ export function countStatesBelow(profile: BandProfile, energy: number): number {
   if (!isFiniteNumber(energy)) throw bad('energy', 'must be a finite energy in eV', energy, 'pass a number');
   const d = unpack(profile);
   if (energy <= d.Vmin) return 0;
-  const ws: Sweep = { count: 0, angle: 0 };
-  sweep(d, Math.min(energy, d.barrier), ws, { u: 0, p: 0, zeros: 0 });
+  const ws: Sweep = { count: 0, angle: 0, slope: NaN };
+  sweep(d, Math.min(energy, d.barrier), ws, newCarry());
   return ws.count;
 }
 
@@ -505,8 +639,8 @@ export function countStatesBelow(profile: BandProfile, energy: number): number {
  * Bound states of one band profile, ascending in particle energy, strictly between the lowest
  * potential and the continuum edge (the lower of the two outer potentials).
  *
- * Method: bisection on the oscillation count N(E) isolates each eigenvalue, then Brent's method on
- * the continuous Prüfer mismatch refines it to `tolerance_eV` (default 1e-12 eV). State n (1-based)
+ * Method: bisection on the oscillation count N(E) isolates each eigenvalue, then safeguarded Newton
+ * steps on the continuous Prüfer mismatch refine it to `tolerance_eV` (default 1e-12 eV). State n (1-based)
  * has n − 1 nodes. Eigenvalues closer together than the floating-point resolution of E (a double well
  * behind a very thick barrier) are reported at one common energy rather than dropped.
  * Example: a 10 nm GaAs-like well (V = 0, m = 0.067) in barriers V = 0.3 eV, m = 0.092 has three
@@ -518,33 +652,28 @@ export function solveBand(profile: BandProfile, options?: SolveBandOptions): Ban
   const work = { evaluations: 0 };
   const energies: number[] = [];
   if (d.Vmin < d.barrier) {
-    const ws: Sweep = { count: 0, angle: 0 };
-    const st: Carry = { u: 0, p: 0, zeros: 0 };
+    const ws: Sweep = { count: 0, angle: 0, slope: NaN };
+    const st = newCarry();
     sweep(d, d.barrier, ws, st);
     work.evaluations++;
     const total = Math.min(ws.count, maxStates);
-    const topAngle = ws.angle;
     const topCount = ws.count;
     if (total > 0) {
-      sweep(d, d.Vmin, ws, st);
-      work.evaluations++;
       const logs = new Float64Array(d.n + 1);
-      const bracket = new Float64Array(4);
       const deepest = deepestBoundary(d);
-      // Brackets on an explicit stack: [a, na, anglea, b, nb, angleb]; lower intervals are popped first.
-      const stack: number[] = [d.Vmin, ws.count, ws.angle, d.barrier, topCount, topAngle];
+      // Brackets on an explicit stack: [a, na, b, nb]; lower intervals are popped first. No state
+      // lies at or below the lowest potential, so N(Vmin) = 0 needs no sweep.
+      const stack: number[] = [d.Vmin, 0, d.barrier, topCount];
       const found = new Float64Array(total);
       while (stack.length > 0) {
-        const angB = stack.pop()!;
         const nb = stack.pop()!;
         const b = stack.pop()!;
-        const angA = stack.pop()!;
         const na = stack.pop()!;
         const a = stack.pop()!;
         if (na >= total || nb <= na) continue;
         if (nb - na === 1) {
           // The counts isolated one eigenvalue in [a, b].
-          found[na] = refine(d, na, deepest, a, angA - na * PI, b, angB - na * PI, tol, ws, st, work, bracket, logs);
+          found[na] = refine(d, na, deepest, a, b, tol, ws, st, work, logs);
           continue;
         }
         const mid = 0.5 * (a + b);
@@ -554,8 +683,8 @@ export function solveBand(profile: BandProfile, options?: SolveBandOptions): Ban
         }
         sweep(d, mid, ws, st);
         work.evaluations++;
-        stack.push(mid, ws.count, ws.angle, b, nb, angB);
-        stack.push(a, na, angA, mid, ws.count, ws.angle);
+        stack.push(mid, ws.count, b, nb);
+        stack.push(a, na, mid, ws.count);
       }
       for (let k = 0; k < total; k++) energies.push(found[k]!);
     }
@@ -566,36 +695,6 @@ export function solveBand(profile: BandProfile, options?: SolveBandOptions): Ban
     states: energies.map((energy, k) => ({ index: k + 1, energy, nodes: k })),
     barrier: d.barrier,
     evaluations: work.evaluations,
-  };
-}
-
-/**
- * Energies Richardson-extrapolated in the slice width, for graded layers and fields.
- *
- * The caller's `build(h)` slices the structure at most h nm wide with midpoint values; midpoint
- * slicing is second order, so E ≈ E(h/2) + (E(h/2) − E(h))/3 (L. F. Richardson, Phil. Trans. R. Soc.
- * A 210, 307 (1911)). States are matched by index; only indices bound at both widths are returned.
- * Units: h_nm in nm; energies eV. The barrier is that of the finer profile; evaluations add up.
- */
-export function solveBandExtrapolated(build: (maxSlice_nm: number) => BandProfile, h_nm: number,
-  options?: SolveBandOptions): BandSolution {
-  if (!isFiniteNumber(h_nm) || h_nm <= 0) {
-    throw bad('h_nm', 'must be a positive slice width in nm', h_nm, 'pass e.g. 0.1');
-  }
-  const coarse = solveBand(build(h_nm), options);
-  const fine = solveBand(build(h_nm / 2), options);
-  const count = Math.min(coarse.states.length, fine.states.length);
-  const states: BoundState[] = [];
-  for (let k = 0; k < count; k++) {
-    const ef = fine.states[k]!.energy;
-    states.push({ index: k + 1, energy: ef + (ef - coarse.states[k]!.energy) / 3, nodes: k });
-  }
-  return {
-    band: fine.band,
-    sign: fine.sign,
-    states,
-    barrier: fine.barrier,
-    evaluations: coarse.evaluations + fine.evaluations,
   };
 }
 
@@ -663,7 +762,7 @@ function intS2(s: number, L: number, cL: number, SL: number): number {
  * z = 0 at the left edge of the first slice (may extend into the outer regions); result nm^-1/2.
  */
 export function wavefunction(profile: BandProfile, energy: number, z_nm: Float64Array): Float64Array {
-  const d = unpack(profile);
+  const d = requireFlat(unpack(profile), 'wavefunction');
   if (!isFiniteNumber(energy) || !(energy < d.barrier)) {
     throw bad('energy', `must be a bound-state energy below the continuum edge ${d.barrier} eV`, energy,
       'pass an energy from solveBand');

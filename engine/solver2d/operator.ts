@@ -47,7 +47,9 @@ export function massesAt(grid: CrossSectionGrid, energy?: number): { readonly x:
  * piecewise-linear solution and the scheme stays second order; the arithmetic mean of 1/m would
  * be first order at such an interface. A diagonal tensor only couples x-differences to m_x and
  * y-differences to m_y, so each face keeps this one-dimensional argument. The wall coupling uses
- * the node's own mass. The result is symmetric and, with shift ≤ min V, positive definite.
+ * the node's own mass and the wall's distance δ (grid.wall_nm): (h/δ)·c/m, the flux of ψ falling
+ * linearly to zero over δ (c/m for a wall one spacing away, 2c/m half a spacing away). The result
+ * is symmetric and, with shift ≤ min V, positive definite.
  * Units: grid in nm, eV, m0; shift and energy in eV.
  */
 export function buildOperator(grid: CrossSectionGrid, shift: number, energy?: number): Stencil9 {
@@ -55,16 +57,18 @@ export function buildOperator(grid: CrossSectionGrid, shift: number, energy?: nu
   const { x: mx, y: my } = massesAt(grid, energy);
   const cx = HBAR2_OVER_2M0 / (grid.dx_nm * grid.dx_nm);
   const cy = HBAR2_OVER_2M0 / (grid.dy_nm * grid.dy_nm);
+  const wx = grid.wall_nm ? grid.dx_nm / grid.wall_nm[0] : 1;
+  const wy = grid.wall_nm ? grid.dy_nm / grid.wall_nm[1] : 1;
   const coef = new Float64Array(9 * nx * ny);
   for (let j = 0; j < ny; j++) {
     for (let i = 0; i < nx; i++) {
       const k = i + nx * j;
       const a = mx[k];
       const b = my[k];
-      const west = i > 0 ? (2 * cx) / (a + mx[k - 1]) : cx / a;
-      const east = i < nx - 1 ? (2 * cx) / (a + mx[k + 1]) : cx / a;
-      const south = j > 0 ? (2 * cy) / (b + my[k - nx]) : cy / b;
-      const north = j < ny - 1 ? (2 * cy) / (b + my[k + nx]) : cy / b;
+      const west = i > 0 ? (2 * cx) / (a + mx[k - 1]) : (wx * cx) / a;
+      const east = i < nx - 1 ? (2 * cx) / (a + mx[k + 1]) : (wx * cx) / a;
+      const south = j > 0 ? (2 * cy) / (b + my[k - nx]) : (wy * cy) / b;
+      const north = j < ny - 1 ? (2 * cy) / (b + my[k + nx]) : (wy * cy) / b;
       const c = 9 * k;
       if (i > 0) coef[c + 3] = -west;
       if (i < nx - 1) coef[c + 5] = -east;
@@ -78,7 +82,7 @@ export function buildOperator(grid: CrossSectionGrid, shift: number, energy?: nu
 
 /**
  * uᵀH(E)u of the operator of buildOperator (shift 0) and its derivative in E, in one pass over
- * the faces: Σ_faces w(E)(u_a − u_b)² + Σ_walls w(E) u² + Σ V u² with w = 2c/(m_a(E) + m_b(E)),
+ * the faces: Σ_faces w(E)(u_a − u_b)² + Σ_walls w(E) u² + Σ V u² with w = 2c/(m_a(E) + m_b(E)) ((h/δ)·c/m at a wall),
  * dw/dE = −2c(m_a α_a + m_b α_b)/(m_a(E) + m_b(E))² (m the band-edge masses). The derivative is
  * ≤ 0 for α ≥ 0: heavier masses at higher energy lower the kinetic term. Units: eV, eV/eV.
  */
@@ -88,16 +92,18 @@ export function energyForm(grid: CrossSectionGrid, u: Float64Array, energy: numb
   const alpha = grid.alpha;
   const cx = HBAR2_OVER_2M0 / (grid.dx_nm * grid.dx_nm);
   const cy = HBAR2_OVER_2M0 / (grid.dy_nm * grid.dy_nm);
+  const wx = grid.wall_nm ? grid.dx_nm / grid.wall_nm[0] : 1;
+  const wy = grid.wall_nm ? grid.dy_nm / grid.wall_nm[1] : 1;
   let value = 0;
   let slope = 0;
-  // One face (or a wall when b < 0) of coupling c between nodes a and b, masses from `m`.
-  const face = (m: Float64Array, c: number, a: number, b: number): void => {
+  // One face (or a wall, of factor `wall`, when b < 0) of coupling c between nodes a and b, masses from `m`.
+  const face = (m: Float64Array, c: number, a: number, b: number, wall: number): void => {
     const fa = alpha === undefined ? 1 : 1 + alpha[a] * (energy - V[a]);
     const da = alpha === undefined ? 0 : m[a] * alpha[a];
     if (b < 0) {
       const ma = m[a] * fa;
-      value += (c / ma) * u[a] * u[a];
-      slope -= ((c * da) / (ma * ma)) * u[a] * u[a];
+      value += ((wall * c) / ma) * u[a] * u[a];
+      slope -= ((wall * c * da) / (ma * ma)) * u[a] * u[a];
       return;
     }
     const fb = alpha === undefined ? 1 : 1 + alpha[b] * (energy - V[b]);
@@ -111,10 +117,10 @@ export function energyForm(grid: CrossSectionGrid, u: Float64Array, energy: numb
     for (let i = 0; i < nx; i++) {
       const k = i + nx * j;
       value += V[k] * u[k] * u[k];
-      face(mass, cx, k, i > 0 ? k - 1 : -1);
-      if (i === nx - 1) face(mass, cx, k, -1);
-      face(massY, cy, k, j > 0 ? k - nx : -1);
-      if (j === ny - 1) face(massY, cy, k, -1);
+      face(mass, cx, k, i > 0 ? k - 1 : -1, wx);
+      if (i === nx - 1) face(mass, cx, k, -1, wx);
+      face(massY, cy, k, j > 0 ? k - nx : -1, wy);
+      if (j === ny - 1) face(massY, cy, k, -1, wy);
     }
   }
   return { value, slope };

@@ -11,9 +11,15 @@ export interface CrossSectionGrid {
   /** Node spacings (nm). */
   readonly dx_nm: number;
   readonly dy_nm: number;
-  /** Coordinates of node (0, 0) (nm); the Dirichlet wall lies one spacing further out. */
+  /** Coordinates of node (0, 0) (nm); the Dirichlet wall lies `wall_nm` further out. */
   readonly x0_nm: number;
   readonly y0_nm: number;
+  /**
+   * Distance (nm) from the outermost nodes to the Dirichlet wall, along x and along y (the same on
+   * both sides). Default one spacing: the wall is the ring of boundary nodes around the grid. A
+   * cell-centred grid whose cells tile the box has half a spacing (sampleCrossSection).
+   */
+  readonly wall_nm?: readonly [number, number];
   /** Particle-sense potential at the nodes (eV), index i + nx·j. */
   readonly V: Float64Array;
   /**

@@ -8,9 +8,23 @@
  * whole or not at all. A file that is not a wellsmith store, or was written by a newer format, is
  * refused and left untouched. Errors of the machine (disk full, I/O, read-only, damaged file) are
  * StoreErrors, never a job's failure.
+ *
+ * Durability: write-ahead log with synchronous = NORMAL (SQLite, "Write-Ahead Logging" and "PRAGMA
+ * synchronous", sqlite.org): every write is a committed transaction the moment its call returns,
+ * and a commit is in the operating system's hands at once, but the disk is flushed only when the log
+ * is checkpointed, not on every commit. So a kill or crash of the process (SIGKILL included) loses
+ * nothing committed; a power cut or an operating-system crash leaves a consistent store (never a
+ * damaged one) that may lack the starts of its last moments, which a resume re-runs (a start is
+ * deterministic, so the results do not change). An fsync per start cost 70–85 ms per job.
+ *
+ * A stored design keeps its full solve result except the sampled arrays (wavefunctions of a stack,
+ * |ψ|² maps of a wire), which are recomputed from the spec and the design's values when a report
+ * needs them: the rest is JSON compressed with zlib (format 2; format-1 stores hold plain JSON text
+ * with the arrays, and are read as such).
  */
 import { accessSync, closeSync, constants, existsSync, fsyncSync, mkdirSync, openSync, readdirSync, readSync, renameSync, rmSync, statSync } from 'node:fs';
 import { basename, dirname, join, resolve } from 'node:path';
+import { deflateSync, inflateSync } from 'node:zlib';
 import Database from 'better-sqlite3';
 import { InputError } from '../errors.js';
 import type { StartOutcome } from '../design/start.js';
@@ -18,7 +32,8 @@ import type { DesignResult } from '../design/search.js';
 import { FolderLock } from './lock.js';
 import { toolVersion } from './version.js';
 
-export const STORE_FORMAT = 1;
+/** 2: design results compressed and without sampled arrays; 1 (read too): plain JSON with them. */
+export const STORE_FORMAT = 2;
 export const STORE_FILE = 'campaign.sqlite';
 const APPLICATION = 'wellsmith-campaign-store';
 
@@ -45,7 +60,8 @@ export interface DesignRecord {
   readonly satisfied: number;
   readonly start: number;
   readonly values_json: string;
-  readonly result_json: string;
+  /** The stored solve result: zlib-compressed JSON (format 2) or JSON text (format 1); read it with storedResult. */
+  readonly result_json: string | Buffer;
 }
 
 const SCHEMA = `
@@ -313,8 +329,12 @@ export class RunStore {
         const db = new Database(path, { fileMustExist: true });
         try {
           db.pragma('journal_mode = WAL');
-          db.pragma('synchronous = FULL');
+          db.pragma('synchronous = NORMAL');
           db.pragma('foreign_keys = ON');
+          // A format-1 store takes format-2 records from now on; older tools must then refuse it.
+          if (Number(db.prepare("SELECT value FROM meta WHERE key = 'format'").pluck().get()) < STORE_FORMAT) {
+            db.prepare("UPDATE meta SET value = ? WHERE key = 'format'").run(String(STORE_FORMAT));
+          }
         } catch (e) {
           db.close();
           throw e;
@@ -438,7 +458,7 @@ export class RunStore {
         .run(now(), result.status, result.message, result.designs[0]?.result.parameterSet ?? null, result.evaluations, result.failures, name);
       if (r.changes !== 1) throw new Error(`run store: job "${name}" is not running`);
       const put = this.db.prepare('INSERT INTO designs (job, rank, loss, satisfied, start, values_json, result_json) VALUES (?, ?, ?, ?, ?, ?, ?)');
-      for (const d of result.designs) put.run(name, d.rank, d.loss, d.satisfied ? 1 : 0, d.start, JSON.stringify(d.values), JSON.stringify(d.result, keepNonFinite));
+      for (const d of result.designs) put.run(name, d.rank, d.loss, d.satisfied ? 1 : 0, d.start, JSON.stringify(d.values), packResult(d.result));
     })());
   }
 
@@ -471,9 +491,10 @@ export class RunStore {
         for (const row of this.db.prepare(`SELECT ${key} AS key, ${fields.join(', ')} FROM ${table}`).iterate() as IterableIterator<Record<string, unknown>>) {
           for (const f of fields) {
             try {
-              JSON.parse(String(row[f]));
+              const v = row[f];
+              JSON.parse(Buffer.isBuffer(v) ? inflateSync(v).toString('utf8') : String(v));
             } catch {
-              damaged(`${table}.${f} of ${String(row['key'])} is not valid JSON`);
+              damaged(`${table}.${f} of ${String(row['key'])} is not valid JSON${Buffer.isBuffer(row[f]) ? ' (its compressed form is damaged)' : ''}`);
             }
           }
         }
@@ -529,6 +550,28 @@ export class RunStore {
       designs: this.db.prepare('SELECT job, rank, loss, satisfied, start, values_json, result_json FROM designs ORDER BY job, rank').all(),
     }));
   }
+}
+
+/** The sampled arrays a stored result leaves out: a stack's wavefunctions, a wire's |ψ|² maps (recomputed for reports). */
+const SAMPLED = new Set(['wavefunctions', 'maps']);
+
+/** A design's solve result as stored: JSON without its sampled arrays, non-finite numbers as strings, zlib-compressed. */
+function packResult(result: object): Buffer {
+  const text = JSON.stringify(result, function (this: unknown, key: string, v: unknown) {
+    return this === result && SAMPLED.has(key) ? undefined : keepNonFinite(key, v);
+  });
+  // The fastest level: 0.6 ms against 0.9 ms at the default for a 48 kB result, 9 % larger (measured, pump-976).
+  return deflateSync(Buffer.from(text, 'utf8'), { level: 1 });
+}
+
+/**
+ * A stored design's solve result as plain data: format 2 (compressed, without wavefunctions or
+ * maps) or format 1 (JSON text with them); non-finite numbers revived. Throws a SyntaxError or a
+ * zlib error for a damaged record.
+ */
+export function storedResult(d: Pick<DesignRecord, 'result_json'>): Record<string, unknown> {
+  const text = Buffer.isBuffer(d.result_json) ? inflateSync(d.result_json).toString('utf8') : d.result_json;
+  return JSON.parse(text, reviveNonFinite) as Record<string, unknown>;
 }
 
 /** JSON has no Infinity or NaN: an unevaluable start's loss is kept as the string "Infinity" and read back as the number. */

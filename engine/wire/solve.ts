@@ -18,7 +18,7 @@ import { solveBand } from '../solver1d.js';
 import type { Spec } from '../spec/schema.js';
 import type { TransitionResult } from '../solve.js';
 import { nominalVariables, PARAMETER_SET } from '../structure.js';
-import { sampleCrossSection, solveCrossSectionConverged, type CrossSectionBox, type CrossSectionMaterial } from '../solver2d.js';
+import { sampleCrossSection, solveCrossSectionConverged, type CrossSectionBox, type CrossSectionGrid, type CrossSectionMaterial } from '../solver2d.js';
 import { dos1d } from '../observables/dos.js';
 import { buildWireStructure, materialAt, type ParentWell, type WireMaterial, type WireSettings, type WireStructure } from './structure.js';
 import { commonGrid, overlap2d, type MapGrid } from './grid.js';
@@ -227,17 +227,27 @@ const absolute = (t: WireThreshold, sign: number): WireThreshold => ({
   parentWells: t.parentWells.map((w) => ({ ...w, ground_eV: w.ground_eV === null ? null : sign * w.ground_eV })),
 });
 
-/** The outer box: the shape's bounds plus the margin, widened to a whole number of coarse cells so every refined grid nests in it. */
-export function wireBox(s: WireStructure): CrossSectionBox {
+/**
+ * Where a wire's grids lie. `box` is the region the cells tile: the shape's extent cut along each
+ * axis into an even number of cells of `spacing` (the largest at most the grid setting h), and an
+ * even number of them on either side, as many as fit in the margin; `rest` is the part of the
+ * margin left beyond it (nm, per axis, under two cells), through which ψ falls to the hard wall,
+ * which so stays exactly `margin` outside the shape on every grid. The grids at 2h (the error
+ * estimate's), h, h/2 and h/4 then nest, and the outer interfaces of the shape (all the interfaces
+ * of a rectangle) lie on their cell faces, where the operator's flux is exact and the energies
+ * converge cleanly in h² (engine/solver2d.ts sampleCrossSection).
+ */
+export function wireBox(s: WireStructure): { readonly box: CrossSectionBox; readonly spacing: readonly [number, number]; readonly rest: readonly [number, number] } {
   const h = s.settings.grid_nm;
-  const side = (lo: number, hi: number): [number, number] => {
-    const cells = Math.ceil((hi - lo + 2 * s.settings.margin_nm) / h - 1e-9);
-    const mid = (lo + hi) / 2;
-    return [mid - (cells * h) / 2, cells * h];
+  const axis = (lo: number, hi: number): { start: number; size: number; step: number; rest: number } => {
+    const inner = 2 * Math.max(1, Math.ceil((hi - lo) / (2 * h) - 1e-9));
+    const step = (hi - lo) / inner;
+    const outer = 2 * Math.floor(s.settings.margin_nm / (2 * step) + 1e-9);
+    return { start: lo - outer * step, size: (inner + 2 * outer) * step, step, rest: Math.max(0, s.settings.margin_nm - outer * step) };
   };
-  const [x0, w] = side(s.bounds.x0, s.bounds.x1);
-  const [y0, hgt] = side(s.bounds.y0, s.bounds.y1);
-  return { x0_nm: x0, y0_nm: y0, width_nm: w, height_nm: hgt };
+  const x = axis(s.bounds.x0, s.bounds.x1);
+  const y = axis(s.bounds.y0, s.bounds.y1);
+  return { box: { x0_nm: x.start, y0_nm: y.start, width_nm: x.size, height_nm: y.size }, spacing: [x.step, y.step], rest: [x.rest, y.rest] };
 }
 
 export interface WireSolveOptions {
@@ -249,7 +259,8 @@ export interface WireSolveOptions {
  * Wire subbands, the continuum threshold, transitions, 1-D DOS and |ψ|² maps of a wire structure.
  *
  * Per band, the cross-section is sampled (cell-averaged V and masses, see bandMaterial for the
- * mass tensor) at h, h/2 (and h/4) and solved with solveCrossSectionConverged (BenDaniel–Duke,
+ * mass tensor) on cell-centred grids aligned with the shape (wireBox) at 2h, h, h/2 (and h/4) and
+ * solved with solveCrossSectionConverged (BenDaniel–Duke,
  * non-parabolic electrons self-consistent per state when the settings ask, Richardson-extrapolated
  * to the tolerance); the outer wall is a hard (Dirichlet) wall `margin` outside the shape, so a
  * state within about one decay length ħ/√(2mΔ) of the barrier edge is pushed up slightly.
@@ -265,7 +276,7 @@ export interface WireSolveOptions {
  */
 export function solveWireStructure(structure: WireStructure, options: WireSolveOptions = {}): WireSolveResult {
   const settings = structure.settings;
-  const box = wireBox(structure);
+  const { box, spacing, rest } = wireBox(structure);
   const bands = {} as Record<BandName, WireBandResult>;
   const raw = {} as Partial<Record<BandName, { psi: readonly Float64Array[]; nx: number; ny: number }>>;
   const wanted = (band: BandName): number => options.states?.[band] ?? settings.states;
@@ -282,14 +293,18 @@ export function solveWireStructure(structure: WireStructure, options: WireSolveO
       continue;
     }
     const at = (x: number, y: number): CrossSectionMaterial => table[materialAt(structure, x, y)]!;
-    const build = (h: number) => sampleCrossSection(box, h, at);
+    // Grids at multiples of the aligned spacings (build(h) scales both by h / grid_nm), the wall `rest` beyond the cells.
+    const build = (h: number): CrossSectionGrid => {
+      const g = sampleCrossSection(box, [(spacing[0] * h) / settings.grid_nm, (spacing[1] * h) / settings.grid_nm], at);
+      return { ...g, wall_nm: [0.5 * g.dx_nm + rest[0], 0.5 * g.dy_nm + rest[1]] };
+    };
     const r = solveCrossSectionConverged(build, wanted(band), { h_nm: settings.grid_nm, tolerance_eV: settings.tolerance_eV });
     const [nx, ny] = r.gridSize;
-    const dx = box.width_nm / (nx + 1);
-    const dy = box.height_nm / (ny + 1);
+    const dx = box.width_nm / nx;
+    const dy = box.height_nm / ny;
     const dxdy = dx * dy;
     const region = new Int32Array(nx * ny);
-    for (let j = 0; j < ny; j++) for (let i = 0; i < nx; i++) region[i + nx * j] = materialAt(structure, box.x0_nm + (i + 1) * dx, box.y0_nm + (j + 1) * dy);
+    for (let j = 0; j < ny; j++) for (let i = 0; i < nx; i++) region[i + nx * j] = materialAt(structure, box.x0_nm + (i + 0.5) * dx, box.y0_nm + (j + 0.5) * dy);
     const inBand = r.energies.flatMap((e, k) => (e < barrier ? [{ e, psi: r.psi[k]! }] : []));
     // Bound by more than the error estimate: a state of the parent wells just above the threshold must not pass for a subband through discretisation error.
     const isSubband = (e: number): boolean => edge - e > r.errorEstimate_eV;

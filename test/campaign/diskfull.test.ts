@@ -7,27 +7,29 @@
  * exit code until they are retried with --retry-failed.
  */
 import { spawnSync } from 'node:child_process';
-import { cpSync, mkdirSync, rmSync, statSync } from 'node:fs';
+import { cpSync, mkdirSync, rmSync } from 'node:fs';
 import { join } from 'node:path';
 import Database from 'better-sqlite3';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { runCampaignCommand } from '../../engine/cli/campaign.js';
 import { STORE_FILE } from '../../engine/store/store.js';
-import { referenceRun, snapshotOf, spawnCli, tempDir, tinyCampaign, TINY_JOBS, type Snapshot } from './helpers.js';
+import { referenceRunSized, snapshotOf, spawnCli, tempDir, tinyCampaign, TINY_JOBS, type Snapshot } from './helpers.js';
 
 const args = (file: string, out: string, more: Record<string, unknown> = {}) => ({ file, out, workers: 1, shard: undefined, export: undefined, slurm: undefined, ...more });
 
 let dir: string;
 let file: string;
 let reference: Snapshot;
-/** Bytes of the finished reference store: the limits below are a third of it, so the run is cut midway. */
-let storeBytes: number;
+/**
+ * Bytes the reference run's files reached. Its write-ahead log grows with every stored start until
+ * the store is closed, so a limit at half of it cuts the run midway.
+ */
+let bytes: { db: number; wal: number; shm: number };
 
 beforeAll(async () => {
   dir = tempDir('diskfull');
   file = tinyCampaign(dir);
-  reference = await referenceRun(file, join(dir, 'reference'));
-  storeBytes = statSync(join(dir, 'reference', STORE_FILE)).size;
+  ({ snapshot: reference, bytes } = await referenceRunSized(file, join(dir, 'reference')));
 });
 afterAll(() => rmSync(dir, { recursive: true, force: true }));
 
@@ -48,7 +50,8 @@ function expectStopped(run: { code: number | null; stderr: string }, out: string
 describe('a full disk loses nothing', () => {
   it('file-size limit (ulimit -f) in a child: exit 2, job left queued, resumed run equal to the uninterrupted one', async () => {
     const out = join(dir, 'ulimit');
-    const limitKiB = Math.floor(storeBytes / 1024 / 3);
+    // A file-size limit applies to each file: the log is the one that grows.
+    const limitKiB = Math.floor(bytes.wal / 1024 / 2);
     const run = await spawnCli(['campaign', file, '--out', out, '--workers', '1'], { shell: `ulimit -f ${limitKiB}` });
     expectStopped(run, out, /run store ".*": (a disk I\/O error occurred|the disk is full|a file-size limit was reached) \(/);
     const resumed = await runCampaignCommand(args(file, out));
@@ -61,7 +64,8 @@ describe('a full disk loses nothing', () => {
   it.runIf(mountable)('full tmpfs: exit 2 (disk is full), resumed after the file system grows, equal to the uninterrupted run', async (ctx) => {
     const mnt = join(dir, 'tmpfs');
     mkdirSync(mnt);
-    const size = Math.ceil(storeBytes / 3 / 4096) * 4096;
+    // Room for the store, its shared-memory index, the lock file and half of the log.
+    const size = Math.ceil((bytes.db + bytes.shm + 4096 + bytes.wal / 2) / 4096) * 4096;
     const mounted = spawnSync('mount', ['-t', 'tmpfs', '-o', `size=${size}`, 'tmpfs', mnt], { encoding: 'utf8' });
     // A container may forbid mounts even to root: then only the file-size limit above runs.
     if (mounted.status !== 0) ctx.skip(`cannot mount a tmpfs here: ${mounted.stderr.trim()}`);

@@ -1,6 +1,6 @@
 /** Shared pieces of the campaign tests: a tiny campaign (3 jobs × 4 starts), its uninterrupted run, the CLI as a child process. */
 import { spawn, type SpawnOptions } from 'node:child_process';
-import { mkdtempSync, writeFileSync } from 'node:fs';
+import { mkdtempSync, statSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { fileURLToPath } from 'node:url';
@@ -39,11 +39,21 @@ export function snapshotOf(dir: string): Snapshot {
 
 /** The reference: the whole campaign run in this process without interruption. */
 export async function referenceRun(file: string, out: string): Promise<Snapshot> {
+  return (await referenceRunSized(file, out)).snapshot;
+}
+
+/**
+ * The reference run, with the sizes its files reached (bytes) just before the store was closed:
+ * the store file, its write-ahead log (at its largest then: closing checkpoints and removes it) and
+ * the shared-memory index. Disk-full tests set their limits from these.
+ */
+export async function referenceRunSized(file: string, out: string): Promise<{ snapshot: Snapshot; bytes: { db: number; wal: number; shm: number } }> {
   const store = RunStore.open(out);
   try {
     const summary = await runCampaign(loadCampaignFile(file), store, { workers: 1, shard: { index: 1, count: 1 } });
     if (summary.status !== 'complete' || summary.failed.length > 0) throw new Error(`reference run did not complete: ${JSON.stringify(summary)}`);
-    return store.snapshot();
+    const size = (suffix: string): number => statSync(`${store.path}${suffix}`).size;
+    return { snapshot: store.snapshot(), bytes: { db: size(''), wal: size('-wal'), shm: size('-shm') } };
   } finally {
     store.close();
   }

@@ -42,9 +42,16 @@ function flipped(name: string, n: number, headers: boolean): string {
   return out;
 }
 
+/** SQLite's integrity check; a file too damaged for the check to run ("malformed") is reported as its error. */
 function integrity(store: string): string[] {
   const db = new Database(join(store, STORE_FILE), { readonly: true });
-  try { return db.prepare('PRAGMA integrity_check').pluck().all() as string[]; } finally { db.close(); }
+  try {
+    return db.prepare('PRAGMA integrity_check').pluck().all() as string[];
+  } catch (e) {
+    return [(e as Error).message];
+  } finally {
+    db.close();
+  }
 }
 
 describe('merge refuses a damaged source', () => {

@@ -42,19 +42,22 @@ function storedStarts(out: string): number {
   }
 }
 
-interface Ended { readonly code: number | null; readonly signal: NodeJS.Signals | null; readonly stderr: string }
+/** `seen`: the starts another connection saw committed when the signal was sent. */
+interface Ended { readonly code: number | null; readonly signal: NodeJS.Signals | null; readonly stderr: string; readonly seen: number }
 
 /** Runs the CLI on the campaign; sends `signal` once the store holds `after` starts (never, when undefined). */
 function runChild(out: string, after?: number, signal: NodeJS.Signals = 'SIGKILL'): Promise<Ended> {
   return new Promise((resolve, reject) => {
     const child = spawn(process.execPath, ['--import', 'tsx', MAIN, 'campaign', file, '--out', out, '--workers', '1'], { cwd: ROOT, stdio: ['ignore', 'ignore', 'pipe'] });
     let stderr = '';
+    let seen = 0;
     child.stderr.on('data', (d: Buffer) => { stderr += d.toString(); });
     const timer = after === undefined ? undefined : setInterval(() => {
-      if (storedStarts(out) >= after) { clearInterval(timer); child.kill(signal); }
+      seen = storedStarts(out);
+      if (seen >= after) { clearInterval(timer); child.kill(signal); }
     }, 25);
     child.on('error', reject);
-    child.on('exit', (code, sig) => { clearInterval(timer); resolve({ code, signal: sig, stderr }); });
+    child.on('exit', (code, sig) => { clearInterval(timer); resolve({ code, signal: sig, stderr, seen }); });
   });
 }
 
@@ -73,6 +76,8 @@ describe('checkpoint and resume', () => {
         for (const p of points.slice(1)) {
           const killed = await runChild(out, p);
           expect(killed.signal === 'SIGKILL' || killed.code === 0, `run killed at ${p} starts: ${killed.stderr}`).toBe(true);
+          // The store's guarantee (WAL, synchronous NORMAL): a kill loses no committed start.
+          expect(storedStarts(out), `starts committed before the SIGKILL (${killed.seen}) must survive it`).toBeGreaterThanOrEqual(killed.seen);
         }
         const last = await runChild(out);
         expect(last.code, last.stderr).toBe(0);

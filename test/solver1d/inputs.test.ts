@@ -4,7 +4,7 @@
 
 import { describe, expect, it } from 'vitest';
 import { InputError } from '../../engine/errors.js';
-import { countStatesBelow, solveBand, solveBandExtrapolated, wavefunction } from '../../engine/solver1d.js';
+import { countStatesBelow, solveBand, wavefunction } from '../../engine/solver1d.js';
 import { layer, outer, profileOf } from './helpers.js';
 
 const well = profileOf([layer(8, 0, 0.067)], outer(0.3, 0.092));
@@ -41,7 +41,11 @@ describe('input errors', () => {
     expect(thrown(() => wavefunction(well, 0.3, new Float64Array([0]))).field).toBe('energy');
     expect(thrown(() => wavefunction(well, 0.05, new Float64Array([Number.NaN]))).field).toBe('z_nm[0]');
     expect(thrown(() => countStatesBelow(well, Number.NaN)).field).toBe('energy');
-    expect(thrown(() => solveBandExtrapolated(() => well, 0)).field).toBe('h_nm');
+    const sloped = profileOf([{ ...layer(10, 0, 0.067), gradient: { V: 0.01, mass: 0, alpha: 0 } }], outer(0.3, 0.092));
+    expect(thrown(() => wavefunction(sloped, 0.05, new Float64Array([1]))).field).toBe('profile.slices[0].gradient');
+    expect(thrown(() => solveBand(profileOf([{ ...layer(10, 0, 0.067), gradient: { V: Number.NaN, mass: 0, alpha: 0 } }], outer(0.3, 0.092)))).field).toBe('profile.slices[0].gradient.V');
+    // A mass gradient that turns the mass negative inside the slice is refused, not only a bad centre value.
+    expect(thrown(() => solveBand(profileOf([{ ...layer(10, 0, 0.067), gradient: { V: 0, mass: 0.02, alpha: 0 } }], outer(0.3, 0.092)))).field).toBe('profile.slices[0].gradient.mass');
   });
 });
 

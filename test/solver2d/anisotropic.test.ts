@@ -115,14 +115,14 @@ describe('operator with position-dependent anisotropic masses (properties)', () 
 
 describe('sampling a non-parabolic mass', () => {
   it('a cell across an interface takes m(E) equal to the cell average of m_i(1 + α_i(E − V_i)) at every energy (definition)', () => {
-    // Node 1 sits at x = 0.5 nm with the cell [0.25, 0.75] nm and subsamples at 0.3125, 0.4375, … nm: the interface at 0.375 nm leaves one in four on its left.
+    // Cell-centred: node 1 sits at x = 0.25 nm with the cell [0, 0.5] nm and subsamples at 0.0625, 0.1875, 0.3125, 0.4375 nm: the interface at 0.375 nm leaves three in four on its left.
     const material = (x: number) => (x < 0.375 ? { V: 0, mass: 0.067, alpha: 0.7 } : { V: 0.3, mass: 0.092, alpha: 0.55 });
     const g = sampleCrossSection({ x0_nm: -0.5, y0_nm: 0, width_nm: 2, height_nm: 1 }, 0.5, (x) => material(x));
     for (const E of [0, 0.1, 0.25]) {
       const m = massesAt(g, E).x;
       const left = material(0);
       const right = material(1);
-      const expected = 0.25 * left.mass * (1 + left.alpha * (E - left.V)) + 0.75 * right.mass * (1 + right.alpha * (E - right.V));
+      const expected = 0.75 * left.mass * (1 + left.alpha * (E - left.V)) + 0.25 * right.mass * (1 + right.alpha * (E - right.V));
       expectClose(m[1]!, expected, 1e-15, `node 1 at E = ${E} eV`);
     }
   });

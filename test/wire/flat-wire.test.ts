@@ -54,15 +54,24 @@ function lateral(band: BandName, across: 'inPlane' | 'growth', width: number, eW
 }
 
 const PREFIX: Record<BandName, string> = { electron: 'e', heavy_hole: 'hh', light_hole: 'lh' };
+
+/**
+ * The separable estimate's own error, as a fraction of the lateral term (see lateral). Measured here:
+ * e1 and hh1 within 10 % of the term, lh1 19 % from it (the light hole's well state spreads most
+ * into the barrier). A fixed 15 % covered lh1 only through the wire's error estimate, which was
+ * 0.06 meV, 30 times its true error, before that estimate was made to bound the extrapolated value.
+ */
+const SEPARABLE_ERROR = 0.25;
+
 const particle = (r: WireSolveResult, band: BandName): number => (band === 'electron' ? 1 : -1) * r.bands[band].states[0]!.energy_eV;
 
 describe(`${W} × ${H} nm GaAs wire lying flat (the well is its 6 nm side along [001])`, () => {
   for (const band of ['electron', 'heavy_hole', 'light_hole'] as BandName[]) {
-    it(`${PREFIX[band]}1 = E_well(${H} nm) + lateral term within 15 % of the term plus the error estimate`, () => {
+    it(`${PREFIX[band]}1 = E_well(${H} nm) + lateral term within 25 % of the term plus the error estimate`, () => {
       // E_well: the exact 1-D solver (engine/solve.ts, default non-parabolic electrons, like the wire) on the same materials.
       const eWell = (band === 'electron' ? 1 : -1) * well.bands[band].states[0]!.energy_eV;
       const lat = lateral(band, 'inPlane', W, eWell);
-      const tolerance = 0.15 * lat + flat.bands[band].errorEstimate_meV / 1000;
+      const tolerance = SEPARABLE_ERROR * lat + flat.bands[band].errorEstimate_meV / 1000;
       expectClose(particle(flat, band), eWell + lat, tolerance, `${PREFIX[band]}1 of the flat wire (E_well ${eWell} eV, lateral ${lat * 1000} meV)`);
     });
   }
