@@ -200,9 +200,6 @@ export interface HoleDispersion {
 
 const NM2_TO_CM2 = 1e14;
 
-/** ln(1 + e^x) / e^x, finite for every x (→ 1 for x → −∞). */
-const softplusOverExp = (x: number): number => (x > 30 ? (x + Math.log1p(Math.exp(-x))) * Math.exp(-x) : x < -30 ? 1 - 0.5 * Math.exp(x) : Math.log1p(Math.exp(x)) * Math.exp(-x));
-
 /** Checks a dispersion once: finite energies, k ascending from 0, weights positive and summing to 1. */
 function checkDispersion(d: HoleDispersion, where: string): void {
   const k = d.k_per_nm;
@@ -234,27 +231,33 @@ function checkDispersion(d: HoleDispersion, where: string): void {
  */
 function logHoleDensity(d: HoleDispersion, F: number, kT: number): number {
   const k = d.k_per_nm;
+  const n = k.length - 1;
   let xmax = -Infinity;
   for (const dir of d.directions) for (const b of dir.branches) for (let i = 0; i < b.length; i++) xmax = Math.max(xmax, (b[i]! - F) / kT);
   const shift = Math.min(xmax, 0);
-  // e^(−shift) ln(1 + e^x) = e^(x − shift) · softplusOverExp(x)
-  const sp = (x: number): number => Math.exp(x - shift) * softplusOverExp(x);
+  // e^(−shift) ln(1 + e^x), finite for every x: below x = −30 as e^(x − shift)(1 − e^x/2), since
+  // e^(−shift) alone may overflow there (shift < −30 only when every x is below it).
+  const scale = shift > -30 ? Math.exp(-shift) : 0;
+  const sp = (x: number): number => (x > 30 ? (x + Math.log1p(Math.exp(-x))) * scale : x > -30 ? Math.log1p(Math.exp(x)) * scale : Math.exp(x - shift) * (1 - 0.5 * Math.exp(x)));
   let total = 0;
   for (const dir of d.directions) {
     let sum = 0;
     for (const b of dir.branches) {
-      for (let i = 0; i + 1 < k.length; i++) {
-        const ua = k[i]! * k[i]!;
+      let ua = 0;
+      let xa = (b[0]! - F) / kT;
+      let spa = sp(xa);
+      for (let i = 0; i < n; i++) {
         const ub = k[i + 1]! * k[i + 1]!;
-        const xa = (b[i]! - F) / kT;
         const xb = (b[i + 1]! - F) / kT;
-        const s = (b[i + 1]! - b[i]!) / (ub - ua);
-        // Nearly flat intervals: the midpoint rule, to avoid 0/0.
-        sum += Math.abs(xb - xa) < 1e-9 ? (ub - ua) * Math.exp(0.5 * (xa + xb) - shift) / (1 + Math.exp(0.5 * (xa + xb))) : ((kT / s) * (sp(xb) - sp(xa)));
+        const spb = sp(xb);
+        // Δu (sp_b − sp_a)/(x_b − x_a) = (kT/s)(sp_b − sp_a); nearly flat intervals: the midpoint rule, to avoid 0/0.
+        sum += Math.abs(xb - xa) < 1e-9 ? (ub - ua) * Math.exp(0.5 * (xa + xb) - shift) / (1 + Math.exp(0.5 * (xa + xb))) : ((ub - ua) * (spb - spa)) / (xb - xa);
+        ua = ub;
+        xa = xb;
+        spa = spb;
       }
-      const n = k.length - 1;
       const s = (b[n]! - b[n - 1]!) / (k[n]! * k[n]! - k[n - 1]! * k[n - 1]!);
-      if (s < 0) sum += (-kT / s) * sp((b[n]! - F) / kT);
+      if (s < 0) sum += (-kT / s) * spa;
     }
     total += dir.weight * sum;
   }
@@ -315,4 +318,26 @@ export function quasiFermiLevelsMultiband(args: {
   const electron = fermiLevelForSheetDensity({ subbands: args.electronSubbands, density_cm2: args.sheetDensity_cm2, temperature_K: args.temperature_K });
   const hole = holeFermiLevelForDensity({ dispersion: args.holeDispersion, density_cm2: args.sheetDensity_cm2, temperature_K: args.temperature_K });
   return { electron_eV: electron, hole_eV: hole, separation_eV: electron - hole };
+}
+
+/** The dispersion with every energy negated: electrons at E with level F are holes at −E with level −F. */
+const mirrored = (d: HoleDispersion): HoleDispersion => ({
+  k_per_nm: d.k_per_nm,
+  directions: d.directions.map((dir) => ({ weight: dir.weight, branches: dir.branches.map((b) => Float64Array.from(b, (e) => -e)) })),
+});
+
+/**
+ * Electron sheet density (cm⁻²) of conduction subbands given by their in-plane dispersions
+ * (energies eV, absolute, rising with k; one branch per spin state, so a spin-degenerate subband is
+ * listed twice), e.g. non-parabolic subbands: n = Σ_dir w Σ_branch (1/2π) ∫ k dk f(E(k)).
+ * By the mirror E → −E, F → −F, f(E; F) = 1 − f(−E; −F), so this is holeSheetDensity of the mirrored
+ * dispersion at −F, with the same exact integration (linear in k² between points, the last slope beyond).
+ */
+export function electronSheetDensity(args: { readonly dispersion: HoleDispersion; readonly fermiLevel_eV: number; readonly temperature_K: number }): number {
+  return holeSheetDensity({ dispersion: mirrored(args.dispersion), fermiLevel_eV: -args.fermiLevel_eV, temperature_K: args.temperature_K });
+}
+
+/** Electron quasi-Fermi level (eV, absolute) for a sheet density, the inverse of electronSheetDensity. */
+export function electronFermiLevelForDensity(args: { readonly dispersion: HoleDispersion; readonly density_cm2: number; readonly temperature_K: number }): number {
+  return -holeFermiLevelForDensity({ dispersion: mirrored(args.dispersion), density_cm2: args.density_cm2, temperature_K: args.temperature_K });
 }

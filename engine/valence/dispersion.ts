@@ -47,7 +47,17 @@ export interface ValenceOptions {
    * characters from the finer grid.
    */
   readonly extrapolate?: boolean;
+  /**
+   * Functions to project every state on, e.g. the electron envelopes for optical matrix elements:
+   * samples f(z) on an ascending grid z_nm measured from the first layer's start (as a solve's
+   * wavefunctions), taken as 0 outside it. Each subband then carries, per branch, function and
+   * T(φ)-basis component c, ∫ f(z) ψ_c(z) dz at every k (on the finer grid when extrapolating).
+   */
+  readonly project?: { readonly z_nm: ArrayLike<number>; readonly functions: readonly ArrayLike<number>[] };
 }
+
+/** The options with their defaults filled in (projection aside). */
+type Settings = Required<Omit<ValenceOptions, 'project'>>;
 
 export const DEFAULT_VALENCE_OPTIONS = {
   model: 'kp4' as ValenceModel,
@@ -74,6 +84,12 @@ export interface ValenceSubband {
   readonly hh: readonly [Float64Array, Float64Array];
   readonly lh: readonly [Float64Array, Float64Array];
   readonly so: readonly [Float64Array, Float64Array];
+  /**
+   * With `project`: projections[branch][function][component] at each k, ∫ f ψ_c dz (nm^(1/2) times
+   * the unit of f) on the components of the T(φ) basis (hamiltonian.ts blochBasis; 0 outside the
+   * branch's block).
+   */
+  readonly projections?: readonly [readonly (readonly Float64Array[])[], readonly (readonly Float64Array[])[]];
 }
 
 export interface ValenceDirection {
@@ -201,8 +217,46 @@ function bulkTop(c: PointCoefficients, k: number): number {
   return e[d - 1]!;
 }
 
-/** Subbands (energies and characters, labelled) along every direction on one grid. */
-function directionsOn(profile: ValenceProfile, grid: ValenceGrid, ks: Float64Array, o: Required<ValenceOptions>, want: number, counter: { n: number }): { name: string; angle_rad: number; subbands: ValenceSubband[] }[] {
+/**
+ * The functions to project on, sampled at the grid's unknown nodes and multiplied by √w_i: an
+ * eigenvector x = w^{1/2} ψ then gives ∫ f ψ_c dz = Σ_i w_i f(z_i) ψ_c(z_i) = Σ_i x_{i,c} f̃_i (the
+ * box rule of the discretisation). Linear interpolation between samples; 0 outside them.
+ */
+function projector(profile: ValenceProfile, grid: ValenceGrid, project: NonNullable<ValenceOptions['project']>): Float64Array[] {
+  const z = project.z_nm;
+  const nodes = grid.widths.length - 1;
+  return project.functions.map((f, fi) => {
+    if (f.length !== z.length) throw new InputError('bad-value', `valence.project.functions[${fi}]: needs one sample per z (${z.length}), got ${f.length}`);
+    const out = new Float64Array(nodes);
+    let j = 0;
+    for (let i = 0; i < nodes; i++) {
+      const at = grid.z_nm[i + 1]! - profile.origin_nm;
+      if (at < z[0]! || at > z[z.length - 1]!) continue;
+      while (j + 2 < z.length && z[j + 1]! < at) j++;
+      const t = (at - z[j]!) / (z[j + 1]! - z[j]!);
+      const w = 0.5 * (grid.widths[i]! + grid.widths[i + 1]!);
+      out[i] = Math.sqrt(w) * (f[j]! + t * (f[j + 1]! - f[j]!));
+    }
+    return out;
+  });
+}
+
+/** Projections of one eigenvector (components `components` of d, interleaved per node) on the sampled functions. */
+function projectionsOf(x: Float64Array, components: readonly number[], d: number, sampled: readonly Float64Array[]): Float64Array[] {
+  const m = components.length;
+  return sampled.map((f) => {
+    const out = new Float64Array(d);
+    for (let i = 0; i < f.length; i++) {
+      const fi = f[i]!;
+      if (fi === 0) continue;
+      for (let a = 0; a < m; a++) out[components[a]!] = out[components[a]!]! + x[i * m + a]! * fi;
+    }
+    return out;
+  });
+}
+
+/** Subbands (energies and characters, labelled) along every direction on one grid; projections when `project` is given. */
+function directionsOn(profile: ValenceProfile, grid: ValenceGrid, ks: Float64Array, o: Settings, want: number, counter: { n: number }, project?: ValenceOptions['project']): { name: string; angle_rad: number; subbands: ValenceSubband[] }[] {
   const nk = ks.length;
   const d = bandCount(o.model);
   const split = blocksOf(o.model);
@@ -235,15 +289,20 @@ function directionsOn(profile: ValenceProfile, grid: ValenceGrid, ks: Float64Arr
     const branchOf = (j: number, branch: 0 | 1, i: number): { value: number; x: Float64Array; components: readonly number[] } => {
       if (mirror) {
         const b = solved.perBlock[branch]!;
-        return { value: b.values[i]![j]!, x: b.vectors[i]![j]!, components: ops[branch]!.components };
+        // A mirror image is read as the first block's state it images: the band character, and the
+        // conduction-spin sums of |ê·p|² for in-plane or [001] ê, are invariant under z → −z.
+        return { value: b.values[i]![j]!, x: b.vectors[i]![j]!, components: ops[mirrorImage ? 0 : branch]!.components };
       }
       const b = solved.perBlock[0]!;
       return { value: b.values[i]![2 * j + branch]!, x: b.vectors[i]![2 * j + branch]!, components: ops[0]!.components };
     };
+    const sampled = project ? projector(profile, grid, project) : null;
     const subbands: ValenceSubband[] = [];
     for (let j = 0; j < want; j++) {
       const energy: [Float64Array, Float64Array] = [new Float64Array(nk), new Float64Array(nk)];
       const ch = { hh: [new Float64Array(nk), new Float64Array(nk)], lh: [new Float64Array(nk), new Float64Array(nk)], so: [new Float64Array(nk), new Float64Array(nk)] };
+      // projections[branch][function][component][k]
+      const proj = sampled ? ([0, 1] as const).map(() => sampled.map(() => Array.from({ length: d }, () => new Float64Array(nk)))) : null;
       for (const branch of [0, 1] as const) {
         for (let i = 0; i < nk; i++) {
           const s = branchOf(j, branch, i);
@@ -252,11 +311,12 @@ function directionsOn(profile: ValenceProfile, grid: ValenceGrid, ks: Float64Arr
           ch.hh[branch]![i] = c.hh;
           ch.lh[branch]![i] = c.lh;
           ch.so[branch]![i] = c.so;
+          if (proj) projectionsOf(s.x, s.components, d, sampled!).forEach((p, f) => p.forEach((v, c2) => { proj[branch]![f]![c2]![i] = v; }));
         }
       }
       const w = { hh: ch.hh[0]![0]!, lh: ch.lh[0]![0]!, so: ch.so[0]![0]! };
       const kind: BandKind = w.hh >= w.lh && w.hh >= w.so ? 'hh' : w.lh >= w.so ? 'lh' : 'so';
-      subbands.push({ label: kind, kind, energy_eV: energy, hh: [ch.hh[0]!, ch.hh[1]!], lh: [ch.lh[0]!, ch.lh[1]!], so: [ch.so[0]!, ch.so[1]!] });
+      subbands.push({ label: kind, kind, energy_eV: energy, hh: [ch.hh[0]!, ch.hh[1]!], lh: [ch.lh[0]!, ch.lh[1]!], so: [ch.so[0]!, ch.so[1]!], ...(proj ? { projections: [proj[0]!, proj[1]!] as const } : {}) });
     }
     const numbered = new Map<BandKind, number>();
     const labelled = subbands.map((s) => {
@@ -276,7 +336,8 @@ function directionsOn(profile: ValenceProfile, grid: ValenceGrid, ks: Float64Arr
  * −0.8113 eV (11.3 meV below the GaAs edge), lh1 −0.8310, hh2 −0.8447, hh3 −0.8977 eV.
  */
 export function valenceSubbands(structure: Structure, options: ValenceOptions = {}): ValenceResult {
-  const o: Required<ValenceOptions> = { ...DEFAULT_VALENCE_OPTIONS, ...options };
+  const { project, ...rest } = options;
+  const o: Settings = { ...DEFAULT_VALENCE_OPTIONS, ...rest };
   if (o.model !== 'kp4' && o.model !== 'kp6') throw new InputError('bad-value', `valence.model: must be "kp4" or "kp6", got ${JSON.stringify(o.model)}`, 'solver.valence');
   const h = positive('grid_nm', o.grid_nm, false);
   positive('kMax_per_nm', o.kMax_per_nm, false);
@@ -292,7 +353,10 @@ export function valenceSubbands(structure: Structure, options: ValenceOptions = 
   const counter = { n: 0 };
   // Nested grids: the fine one cuts every cell of the coarse one in two.
   const fineGrid = o.extrapolate ? valenceGrid(profile, 2 * h, 2 * refine) : valenceGrid(profile, h, refine);
-  const fine = directionsOn(profile, fineGrid, ks, o, want, counter);
+  if (project && !(project.z_nm.length >= 2 && Array.from(project.z_nm).every((v, i, a) => Number.isFinite(v) && (i === 0 || v > a[i - 1]!)))) {
+    throw new InputError('bad-value', 'valence.project.z_nm: needs at least two finite, ascending positions (nm)');
+  }
+  const fine = directionsOn(profile, fineGrid, ks, o, want, counter, project);
   const coarse = o.extrapolate ? directionsOn(profile, valenceGrid(profile, 2 * h, refine), ks, o, want, counter) : null;
   const outerPoints = [profile.slices[0]!.point, profile.slices[profile.slices.length - 1]!.point];
   const directions = fine.map((dir, di): ValenceDirection => {

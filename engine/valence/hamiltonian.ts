@@ -176,6 +176,17 @@ function basisAt(d: number, phi: number): CMatrix {
   return Q;
 }
 
+/**
+ * The T(φ) basis of `model` in the spinless-orbital ⊗ spin basis: row r = (X↑, Y↑, Z↑, X↓, Y↓, Z↓)
+ * of the crystal axes, column c = basis component c (see the module comment), complex row-major
+ * 6 × d. A state with components a_c in the T(φ) basis is Σ_c a_c · column c; its interband momentum
+ * matrix element with |S, s⟩ along ê is P Σ_α ê_α (Σ_c Q_{(α,s),c} a_c), P = ⟨S|p_x|X⟩.
+ */
+export function blochBasis(model: ValenceModel, phi: number): { readonly cols: number; readonly re: Float64Array; readonly im: Float64Array } {
+  const Q = basisAt(bandCount(model), phi);
+  return { cols: Q.cols, re: Q.re, im: Q.im };
+}
+
 /** I2 ⊗ X for a 3×3 X given row-major: the spin-independent 6×6 matrix. */
 function spinless(x: readonly number[]): Float64Array {
   const out = new Float64Array(36);

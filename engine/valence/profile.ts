@@ -27,6 +27,8 @@ export interface ValenceProfile {
   /** Number of slices at each end that make up the outer regions. */
   readonly outerSlicesLeft: number;
   readonly outerSlicesRight: number;
+  /** Where the structure's z = 0 (the first layer's start) lies on the profile's axis (nm): the left padding. */
+  readonly origin_nm: number;
 }
 
 /**
@@ -133,5 +135,6 @@ export function valenceProfile(s: Structure, options: { readonly model: ValenceM
     outerRight_nm: single ? 0 : last.thickness_nm + padRight,
     outerSlicesLeft: leftCount + (padLeft > 0 ? 1 : 0),
     outerSlicesRight: rightCount + (padRight > 0 ? 1 : 0),
+    origin_nm: padLeft,
   };
 }
