@@ -5,13 +5,20 @@
  */
 import { HC_EV_NM, wavenumberPerCm } from './constants.js';
 import { buildBandProfile, isPiecewiseConstant, type BandName, type BandProfile } from './profile.js';
-import { solveBand, solveBandExtrapolated, twoBandFactor, wavefunction } from './solver1d.js';
+import { countStatesBelow, solveBand, twoBandFactor, wavefunction } from './solver1d.js';
 import { followResonance, resonanceWavefunction, resonanceWidth, siegertPole, type Pole } from './resonance.js';
 import { buildStructure, nominalVariables, PARAMETER_SET, type Structure } from './structure.js';
 import type { Spec } from './spec/schema.js';
 import { parseLength, parseSheetDensity } from './spec/units.js';
 import { quasiFermiLevels, quasiFermiLevelsMultiband, type HoleDispersion } from './observables/carriers.js';
 import { valenceOfSolve, type ValenceSummary } from './valence/summary.js';
+import { opticsOfSpec, type OpticsResult } from './optics/optics.js';
+
+/**
+ * Longest stack whose valence dispersions `solve` computes (nm): the k·p grid grows with the stack
+ * (a 1001-layer superlattice took 25–30 s); beyond it holes keep parabolic masses, said in limits.
+ */
+export const MAX_VALENCE_STACK_NM = 1000;
 import { InputError } from './errors.js';
 import { dipoleNm, intersubbandStates, oscillatorStrength, overlap2, weightedGrid } from './observables/matrix-elements.js';
 import { permittivityOnGrid, subbandExciton } from './observables/exciton.js';
@@ -24,11 +31,15 @@ const PREFIX: Readonly<Record<BandName, string>> = { electron: 'e', heavy_hole: 
 export interface SolverSettings {
   /** Energy-dependent electron mass (two-band form). */
   readonly nonparabolic: boolean;
-  /** Largest slice (nm) for graded layers and fields; results are Richardson-extrapolated. */
+  /**
+   * Largest flat slice (nm) under a field or in graded layers: resonances are Richardson-extrapolated
+   * over it and its half, and wavefunctions sampled on the finer; bound-state energies come from
+   * linear slices (Airy functions, engine/solver1d.ts) and do not depend on it.
+   */
   readonly slice_nm: number;
-  /** Upper limit on states per band (Infinity: all bound states). */
+  /** Upper limit on states per band (Infinity: all bound states, or the lowest DEFAULT_STATE_LIMIT of a band holding more). */
   readonly maxStates: number;
-  /** Spacing of the z grid on which wavefunctions are sampled for overlaps (nm). */
+  /** Spacing of the z grid on which wavefunctions are sampled for overlaps (nm); coarser over a stack longer than MAX_GRID_POINTS of it. */
   readonly grid_nm: number;
   /**
    * Valence model of `solve`'s hole dispersions, DOS and quasi-Fermi levels (absent: 'kp4'); the
@@ -73,6 +84,8 @@ export interface BandResult {
   /** Continuum edge: the lower (for holes, upper) of the two outer regions (eV, absolute). */
   readonly barrier_eV: number;
   readonly evaluations: number;
+  /** Bound states the band holds, given when only the lowest of them were solved (SolveResult.limits says why). */
+  readonly bound_states?: number;
 }
 
 export interface TransitionResult {
@@ -127,7 +140,8 @@ export interface CarrierResult {
 }
 
 export interface SolveResult {
-  readonly status: 'ok' | 'no-bound-state' | 'unphysical';
+  /** 'not-converged': a doped stack's self-consistent solve (engine/poisson/doped.ts) stopped at its iteration limit. */
+  readonly status: 'ok' | 'no-bound-state' | 'unphysical' | 'not-converged';
   readonly message: string;
   readonly structure: Structure;
   readonly parameterSet: string;
@@ -139,6 +153,15 @@ export interface SolveResult {
   readonly carriers?: CarrierResult;
   /** Valence subband dispersions and DOS masses (`solve` with a multiband valence model and bound holes). */
   readonly valence?: ValenceSummary;
+  /** Gain, absorption and spontaneous-emission spectra (`solve` of a spec with an `optics:` section). */
+  readonly optics?: OpticsResult;
+  /**
+   * What this solve left out, one sentence each, when it limited itself: a band holding more than
+   * DEFAULT_STATE_LIMIT bound states with no limit asked (a long stack, a superlattice) is solved
+   * for its lowest ones, of which the lowest LIMITED_TRANSITION_STATES enter transitions (interband
+   * pairs only where allowed); a stack longer than MAX_GRID_POINTS grid steps is sampled coarser.
+   */
+  readonly limits?: readonly string[];
   /** Wavefunctions on a uniform z grid (nm; z = 0 at the first layer's start), per band per state. */
   readonly wavefunctions: { readonly z_nm: Float64Array; readonly psi: Readonly<Record<BandName, readonly Float64Array[]>> };
 }
@@ -171,11 +194,46 @@ interface SolvedState {
 }
 
 interface SolvedBand {
-  /** The profile wavefunctions are sampled on (the finer one where energies are extrapolated). */
-  readonly profile: BandProfile;
+  /** The flat-sliced profile wavefunctions are sampled on (the finer one under a field or grade), built on first use. */
+  readonly profile: () => BandProfile;
+  /** Lowest potential and open edge of the band (eV, particle sense). */
+  readonly vmin: number;
+  readonly openEdge: number;
+  readonly sign: 1 | -1;
   readonly states: readonly SolvedState[];
   readonly evaluations: number;
+  /** The band's bound-state count when the default limit cut it (see DEFAULT_STATE_LIMIT). */
+  readonly limitedFrom?: number;
 }
+
+/**
+ * States per band solved when neither the spec (solver.max_states) nor the caller limits them and
+ * a band holds more bound states than this (a long stack or superlattice: a 1000-layer GaAs/AlGaAs
+ * superlattice holds about 800 electron states; the 30-well detector of runs/ 60, all solved): the
+ * lowest ones, stated in SolveResult.limits.
+ */
+export const DEFAULT_STATE_LIMIT = 64;
+
+/**
+ * States of a limited band (see DEFAULT_STATE_LIMIT) that enter transitions: its lowest ones. With
+ * 64 states in each of three bands every pair would be some 14 000 overlaps and exciton estimates.
+ */
+export const LIMITED_TRANSITION_STATES = 16;
+
+/**
+ * Interband pairs with a limited band that are listed: envelope overlap² at least this. The others
+ * are forbidden lines (a superlattice's pairs of different miniband wavevector, parity in a
+ * symmetric stack), whose exciton estimates would cost seconds and say nothing.
+ */
+export const ALLOWED_OVERLAP2 = 1e-4;
+
+/**
+ * Most points of the z grid wavefunctions are sampled on: a stack longer than this many grid
+ * steps (1 µm at the default 0.05 nm) is sampled more coarsely, stated in SolveResult.limits.
+ * Simpson's rule on the grid errs by about (kh)⁴/180: below 1e-5 at 0.25 nm for states bound by
+ * up to 0.3 eV in GaAs, where the per-state cost of sampling and of every overlap is five times less.
+ */
+export const MAX_GRID_POINTS = 20_000;
 
 /**
  * Spacing (eV) that sets how far a state may move in one continuation step: its distance to the
@@ -212,30 +270,36 @@ function peakOf(psi: Float64Array, z: Float64Array): number {
 }
 
 /**
- * The states of one band: bound states (below the open edge) from the exact real solver; under a
- * field, above them the resonances that continue the remaining zero-field bound states, in order
- * (a state the continuation loses ends the list, so labels keep their zero-field order). Energies
- * of a field are Richardson-extrapolated in the slice width; widths come from the finer profile
- * (their slicing error is relative, below 1e-4 at the default 0.2 nm).
+ * The states of one band: bound states (below the open edge) from the exact real solver, under a
+ * field or in graded layers on linear slices (Airy transfer, no slicing error to extrapolate);
+ * under a field, above them the resonances that continue the remaining zero-field bound states, in
+ * order (a state the continuation loses ends the list, so labels keep their zero-field order).
+ * Resonance energies are Richardson-extrapolated in the flat slice width; widths come from the
+ * finer profile (their slicing error is relative, below 1e-4 at the default 0.2 nm).
  */
-function solveOneBand(structure: Structure, band: BandName, settings: SolverSettings, ask: number): SolvedBand {
+function solveOneBand(structure: Structure, band: BandName, settings: SolverSettings, asked: number, limitable: boolean): SolvedBand {
   const build = (h: number, s: Structure = structure): BandProfile => buildBandProfile(s, band, { maxSlice_nm: h, nonparabolic: settings.nonparabolic });
-  if (ask === 0) return { profile: build(settings.slice_nm), states: [], evaluations: 0 };
+  const flat = isPiecewiseConstant(structure);
+  let sampled: BandProfile | undefined;
+  const profile = (): BandProfile => (sampled ??= build(flat ? settings.slice_nm : settings.slice_nm / 2));
+  const exact = flat ? profile() : buildBandProfile(structure, band, { maxSlice_nm: settings.slice_nm, nonparabolic: settings.nonparabolic, linear: true });
+  let vmin = Infinity;
+  for (const s of exact.slices) vmin = Math.min(vmin, s.V - 0.5 * Math.abs(s.gradient?.V ?? 0) * s.width_nm);
+  // No limit asked: one count sweep says whether the band holds more states than the default limit.
+  const total = limitable ? countStatesBelow(exact, exact.openEdge) : 0;
+  const ask = total > DEFAULT_STATE_LIMIT ? DEFAULT_STATE_LIMIT : asked;
+  const band0 = { profile, vmin, openEdge: exact.openEdge, sign: exact.sign, ...(total > DEFAULT_STATE_LIMIT ? { limitedFrom: total } : {}) };
+  const counted = limitable ? 1 : 0;
+  if (ask === 0) return { ...band0, states: [], evaluations: counted };
   const options = Number.isFinite(ask) ? { maxStates: ask } : {};
   const asStates = (energies: readonly { energy: number; nodes: number }[]): SolvedState[] => energies.map((e) => ({ energy: e.energy, width: 0, nodes: e.nodes }));
-  if (isPiecewiseConstant(structure)) {
-    const profile = build(settings.slice_nm);
-    const solution = solveBand(profile, options);
-    return { profile, states: asStates(solution.states), evaluations: solution.evaluations };
-  }
-  // Wavefunctions come from the finer profile; energies from the extrapolation.
-  const h = settings.slice_nm;
-  const fine = build(h / 2);
-  const bound = solveBandExtrapolated(build, h, options);
+  const bound = solveBand(exact, options);
   const states = asStates(bound.states);
-  let evaluations = bound.evaluations;
+  let evaluations = bound.evaluations + counted;
   const F = structure.field_kV_per_cm;
-  if (F === 0 || states.length >= ask) return { profile: fine, states, evaluations };
+  if (F === 0 || states.length >= ask) return { ...band0, states, evaluations };
+  const h = settings.slice_nm;
+  const fine = profile();
   const zeroProfile = build(h, { ...structure, field_kV_per_cm: 0 });
   const zeroSolution = solveBand(zeroProfile, Number.isFinite(ask) ? { maxStates: ask + 1 } : {});
   evaluations += zeroSolution.evaluations;
@@ -255,7 +319,7 @@ function solveOneBand(structure: Structure, band: BandName, settings: SolverSett
     if (!f) break;
     states.push({ energy: f.energy + (f.energy - c.energy) / 3, width: resonanceWidth(fine, f), nodes: k, pole: f });
   }
-  return { profile: fine, states, evaluations };
+  return { ...band0, states, evaluations };
 }
 
 /**
@@ -291,28 +355,34 @@ function inPlaneMass(profile: BandProfile, z: Float64Array, psi: Float64Array, e
 export interface SolveOptions {
   /** Sample wavefunctions (needed for overlaps, dipoles, in-plane masses); default true. */
   readonly wavefunctions?: boolean;
-  /** Solve only the lowest n states of a band (0 skips it); a band not listed gets all its bound states. */
+  /**
+   * Solve only the lowest n states of a band (0 skips it); a band not listed gets all its bound
+   * states, or its lowest DEFAULT_STATE_LIMIT when it holds more.
+   */
   readonly states?: Partial<Record<BandName, number>>;
+  /** Called as the solve proceeds (for a progress display): `done` of `total` steps, `what` names the one just finished. */
+  readonly onProgress?: (done: number, total: number, what: string) => void;
 }
 
 export function solveStructure(structure: Structure, settings: SolverSettings = DEFAULT_SETTINGS, options: SolveOptions = {}): SolveResult {
   const sample = options.wavefunctions ?? true;
-  const z = sample ? uniformGrid(structure.total_nm, settings.grid_nm) : new Float64Array(0);
+  const step = Math.max(settings.grid_nm, structure.total_nm / MAX_GRID_POINTS);
+  const z = sample ? uniformGrid(structure.total_nm, step) : new Float64Array(0);
 
   const bands = {} as Record<BandName, BandResult>;
   const psi = {} as Record<BandName, Float64Array[]>;
   const dosBands = {} as Record<BandName, DosStep[]>;
   let electronBand: ReturnType<typeof solveOneBand> | undefined;
-  for (const band of BANDS) {
+  const limits: string[] = [];
+  const progress = (done: number, what: string): void => options.onProgress?.(done, BANDS.length + 1, what);
+  for (const [b, band] of BANDS.entries()) {
     const wanted = options.states?.[band];
     const ask = wanted === undefined ? settings.maxStates : Math.min(settings.maxStates, wanted);
-    const solved = solveOneBand(structure, band, settings, ask);
+    const solved = solveOneBand(structure, band, settings, ask, wanted === undefined && settings.maxStates === Infinity);
     if (band === 'electron') electronBand = solved;
-    const { profile } = solved;
-    const sign = profile.sign;
-    let vmin = Infinity;
-    for (const s of profile.slices) vmin = Math.min(vmin, s.V);
-    const waves = sample ? solved.states.map((s) => (s.pole ? resonanceWavefunction(profile, s.pole, z) : wavefunction(profile, s.energy, z))) : [];
+    const { sign, vmin } = solved;
+    const profile = sample ? solved.profile() : undefined;
+    const waves = profile ? solved.states.map((s) => (s.pole ? resonanceWavefunction(profile, s.pole, z) : wavefunction(profile, s.energy, z))) : [];
     const states = solved.states.map((s, k): StateResult => ({
       label: `${PREFIX[band]}${k + 1}`,
       index: k + 1,
@@ -321,9 +391,11 @@ export function solveStructure(structure: Structure, settings: SolverSettings = 
       bound: s.pole === undefined,
       width_meV: s.width * 1000,
       nodes: s.nodes,
-      mass_inplane: sample ? inPlaneMass(profile, z, waves[k]!, s.energy) : NaN,
+      mass_inplane: profile ? inPlaneMass(profile, z, waves[k]!, s.energy) : NaN,
     }));
-    bands[band] = { states, edge_eV: sign * vmin, barrier_eV: sign * profile.openEdge, evaluations: solved.evaluations };
+    bands[band] = { states, edge_eV: sign * vmin, barrier_eV: sign * solved.openEdge, evaluations: solved.evaluations, ...(solved.limitedFrom ? { bound_states: solved.limitedFrom } : {}) };
+    if (solved.limitedFrom) limits.push(`${band}: the lowest ${states.length} of its ${solved.limitedFrom} bound states (set solver.max_states for more)`);
+    progress(b + 1, `${band} states`);
     psi[band] = waves;
     dosBands[band] = states.map((s) => ({ label: s.label, edge_eV: s.energy_eV, mass_inplane: s.mass_inplane, step_per_cm2_per_eV: sample ? stepHeight2d(s.mass_inplane) : NaN }));
   }
@@ -339,14 +411,23 @@ export function solveStructure(structure: Structure, settings: SolverSettings = 
   const exciton = (i: number, hole: BandName, j: number): number => (grid && knownPermittivity
     ? subbandExciton({ z, w: grid.w, psiElectron: psi.electron[i]!, psiHole: psi[hole][j]!, massElectron: electrons[i]!.mass_inplane, massHole: bands[hole].states[j]!.mass_inplane, permittivity: permittivity! }).binding_eV
     : NaN);
+  if (sample && step > settings.grid_nm) limits.push(`wavefunctions: sampled every ${step.toPrecision(3)} nm (at most ${MAX_GRID_POINTS} steps over the stack), not ${settings.grid_nm} nm`);
+  // A band cut by the default limit brings only its lowest states to transitions, and its interband pairs only where allowed.
+  const limited = (b: BandName): boolean => bands[b].bound_states !== undefined;
+  const inPairs = (b: BandName): number => (limited(b) ? Math.min(LIMITED_TRANSITION_STATES, bands[b].states.length) : bands[b].states.length);
+  for (const b of BANDS) if (limited(b)) limits.push(`transitions: only ${b} states 1–${inPairs(b)}, and their interband pairs only where allowed (envelope overlap² ≥ ${ALLOWED_OVERLAP2})`);
+  const nE = inPairs('electron');
   for (const hole of ['heavy_hole', 'light_hole'] as const) {
-    for (const [i, e] of electrons.entries()) {
-      for (const [j, h] of bands[hole].states.entries()) {
+    const allowedOnly = grid !== undefined && (limited('electron') || limited(hole));
+    for (const [i, e] of electrons.slice(0, nE).entries()) {
+      for (const [j, h] of bands[hole].states.slice(0, inPairs(hole)).entries()) {
         // A pair that would emit at a negative energy exists only in a broken-gap structure (status unphysical): no line.
         if (!(e.energy_eV > h.energy_eV)) continue;
+        const o2 = grid ? overlap2(psi.electron[i]!, psi[hole][j]!, grid) : NaN;
+        if (allowedOnly && !(o2 >= ALLOWED_OVERLAP2)) continue;
         transitions.push({
           label: `${e.label}-${h.label}`, kind: 'interband', ...photon(e.energy_eV - h.energy_eV),
-          overlap2: grid ? overlap2(psi.electron[i]!, psi[hole][j]!, grid) : NaN, exciton_binding_eV: exciton(i, hole, j),
+          overlap2: o2, exciton_binding_eV: exciton(i, hole, j),
         });
       }
     }
@@ -354,13 +435,13 @@ export function solveStructure(structure: Structure, settings: SolverSettings = 
   // Bound electron states (listed before any resonance) are orthogonal in the inner product of the
   // energy-dependent mass (intersubbandStates); a resonance has no finite norm there, so a pair with
   // one keeps the single-band integrals on the stack grid, about the stack's centre.
-  const bound = electrons.filter((s) => s.bound).length;
-  const twoBand = sample && bound > 1 ? intersubbandStates(electronBand!.profile, electronBand!.states.slice(0, bound).map((s) => s.energy)) : undefined;
+  const bound = electrons.slice(0, nE).filter((s) => s.bound).length;
+  const twoBand = sample && bound > 1 ? intersubbandStates(electronBand!.profile(), electronBand!.states.slice(0, bound).map((s) => s.energy)) : undefined;
   const centred = grid ? { z: z.map((x) => x - structure.total_nm / 2), w: grid.w } : undefined;
-  for (let i = 0; i < electrons.length; i++) {
-    for (let j = i + 1; j < electrons.length; j++) {
+  for (let i = 0; i < nE; i++) {
+    for (let j = i + 1; j < nE; j++) {
       const dE = electrons[j]!.energy_eV - electrons[i]!.energy_eV;
-      const both = twoBand !== undefined && j < bound;
+      const both = twoBand !== undefined && j < bound && dE !== 0;
       const d = both ? twoBand.dipole(i, j) : centred ? dipoleNm(psi.electron[i]!, psi.electron[j]!, centred) : NaN;
       transitions.push({
         label: `${electrons[i]!.label}-${electrons[j]!.label}`, kind: 'intersubband', ...photon(dE),
@@ -370,6 +451,7 @@ export function solveStructure(structure: Structure, settings: SolverSettings = 
     }
   }
 
+  progress(BANDS.length + 1, 'transitions');
   const missing = BANDS.filter((b) => bands[b].states.length === 0);
   const unphysical = physicalIssues(structure);
   return {
@@ -381,6 +463,7 @@ export function solveStructure(structure: Structure, settings: SolverSettings = 
     bands,
     transitions,
     dos: { dimension: 2, unit: 'states cm^-2 eV^-1 per subband (spin included)', bands: dosBands },
+    ...(limits.length > 0 ? { limits } : {}),
     wavefunctions: { z_nm: z, psi },
   };
 }
@@ -389,14 +472,20 @@ export function solveStructure(structure: Structure, settings: SolverSettings = 
  * Library entry point for a layer stack: solves a validated spec at its nominal (or given)
  * variable values. A `wire:` cross-section is solved by `solveWire` (engine/wire/solve.ts).
  */
-export function solve(spec: Spec, values: Readonly<Record<string, number>> = nominalVariables(spec)): SolveResult {
+export function solve(spec: Spec, values: Readonly<Record<string, number>> = nominalVariables(spec), options: Pick<SolveOptions, 'onProgress'> = {}): SolveResult {
   if (spec.wire !== undefined) throw new InputError('bad-value', 'wire: this spec describes a wire cross-section, not a layer stack; solve it as a wire ("wellsmith solve" does)', 'wire');
   const settings = settingsOf(spec);
-  const solved = solveStructure(buildStructure(spec, values), settings);
+  const solved = solveStructure(buildStructure(spec, values), settings, options);
   const holeCount = solved.bands.heavy_hole.states.length + solved.bands.light_hole.states.length;
   const model = settings.valence ?? 'kp4';
-  const valence = model !== 'parabolic' && holeCount > 0 && solved.status !== 'unphysical' ? valenceOfSolve(solved.structure, model, settings.valenceAxial ?? false, holeCount) : undefined;
-  const result = valence ? { ...solved, valence: valence.summary } : solved;
+  const tooLong = solved.structure.total_nm > MAX_VALENCE_STACK_NM;
+  const valence = model !== 'parabolic' && holeCount > 0 && solved.status !== 'unphysical' && !tooLong ? valenceOfSolve(solved.structure, model, settings.valenceAxial ?? false, holeCount) : undefined;
+  const skipped = model !== 'parabolic' && holeCount > 0 && tooLong
+    ? { limits: [...(solved.limits ?? []), `valence: no ${model} dispersions for a stack over ${MAX_VALENCE_STACK_NM} nm (${solved.structure.total_nm.toPrecision(4)} nm); holes with parabolic in-plane masses`] }
+    : {};
+  const withValence = valence ? { ...solved, valence: valence.summary } : { ...solved, ...skipped };
+  const optics = spec.optics === undefined ? null : opticsOfSpec(withValence, spec.optics, spec.carriers?.sheet_density);
+  const result = optics ? { ...withValence, optics } : withValence;
   if (spec.carriers === undefined) return result;
   const n = parseSheetDensity(spec.carriers.sheet_density);
   if (typeof n === 'string') throw new InputError('bad-value', `carriers.sheet_density: ${n}`, 'carriers.sheet_density');

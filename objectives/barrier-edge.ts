@@ -7,7 +7,7 @@ import { z } from 'zod';
 import { InputError } from '../engine/errors.js';
 import { bandOfLabel, findState } from '../engine/solve.js';
 import { MISSING_STATE_PENALTY, type Objective } from './types.js';
-import { checkStateLabel, energyOf, quantity, weight } from './common.js';
+import { checkStateLabel, energyOf, quantity, unitNotes, weight } from './common.js';
 
 const schema = z.object({
   at_barrier_edge: z.string().describe('State to place at the barrier edge, e.g. e2'),
@@ -22,10 +22,12 @@ export const barrierEdgeObjective: Objective<BarrierEdgeTarget> = {
   schema,
   needsWavefunctions: () => false,
   statesNeeded: (t) => [t.at_barrier_edge],
+  examples: [{ at_barrier_edge: 'e2', within: '10 meV' }],
   check: (t, field) => {
     checkStateLabel(t.at_barrier_edge, `${field}.at_barrier_edge`);
     if (!(energyOf(t.within, `${field}.within`) > 0)) throw new InputError('bad-value', `${field}.within: must be positive, got ${JSON.stringify(t.within)}`, `${field}.within`);
   },
+  warnings: (t, field) => unitNotes([[t.within, `${field}.within`, 'eV']]),
   evaluate: (t, r) => {
     const band = bandOfLabel(t.at_barrier_edge)!.band;
     const within = energyOf(t.within, 'within') * 1000;

@@ -16,11 +16,12 @@ export const boundStatesObjective: Objective<BoundStatesTarget> = {
   schema,
   needsWavefunctions: () => false,
   statesNeeded: (t) => [t.bound_states],
+  examples: [{ bound_states: 'electron', count: 2 }],
   check: () => undefined,
   evaluate: (t, r) => {
     const n = r.bands[t.bound_states].states.filter((s) => s.bound).length;
     // One state off is two windows off: only the exact count lies inside |residual| ≤ 1.
     const residual = 2 * (n - t.count);
-    return { label: `${t.bound_states} bound states`, role: 'target', achieved: n, goal: t.count, unit: '', residual, weight: t.weight ?? 1, satisfied: n === t.count };
+    return { label: `${t.bound_states} bound states`, role: 'target', achieved: n, goal: t.count, unit: 'states', residual, weight: t.weight ?? 1, satisfied: n === t.count };
   },
 };

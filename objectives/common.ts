@@ -2,7 +2,7 @@
 import { z } from 'zod';
 import { InputError } from '../engine/errors.js';
 import { bandOfLabel, findState } from '../engine/solve.js';
-import { parseEnergy, parsePhotonEnergy } from '../engine/spec/units.js';
+import { isUnitless, parseEnergy, parsePhotonEnergy, splitQuantity, unitlessNote } from '../engine/spec/units.js';
 import { HC_EV_NM, KB_EV_PER_K } from '../engine/constants.js';
 import type { TargetSource } from './types.js';
 
@@ -50,6 +50,10 @@ export function excitonBinding(r: TargetSource, label: string): number {
   return r.transitions.find((t) => t.label === label)?.exciton_binding_eV ?? NaN;
 }
 
+/** The unit note of a quantity written without one (see engine/spec/units.ts), as a list for an objective's warnings. */
+export const unitNotes = (entries: readonly (readonly [raw: string | number | undefined, field: string, unit: string])[]): string[] =>
+  entries.flatMap(([raw, field, unit]) => { const n = unitlessNote(raw, unit); return n ? [`${field}: ${n}`] : []; });
+
 export function energyOf(raw: string | number, field: string): number {
   const v = parseEnergy(raw);
   if (typeof v === 'string') throw new InputError('bad-value', `${field}: ${v}`, field);
@@ -64,7 +68,16 @@ export interface PhotonScale {
   readonly fromEv: (eV: number) => number;
 }
 
-export function photonScale(raw: string | number, field: string): PhotonScale {
+/** The default unit of each photon goal key: a bare number is read in it (engine/spec/units.ts unitlessNote). */
+export const PHOTON_UNITS = { energy: 'eV', wavelength: 'nm', wavenumber: 'cm-1' } as const;
+export type PhotonKey = keyof typeof PHOTON_UNITS;
+
+/** A photon goal in its key's default unit when written without one (976 under wavelength: 976 nm). */
+export const withPhotonUnit = (raw: string | number, key: PhotonKey): string | number => (isUnitless(raw) ? `${splitQuantity(raw)!.value} ${PHOTON_UNITS[key]}` : raw);
+
+/** The goal's scale; with its key, a goal written without a unit is read in the key's default unit (PHOTON_UNITS), else refused. */
+export function photonScale(rawGoal: string | number, field: string, key?: PhotonKey): PhotonScale {
+  const raw = key === undefined ? rawGoal : withPhotonUnit(rawGoal, key);
   const p = parsePhotonEnergy(raw);
   if (typeof p === 'string') throw new InputError('bad-value', `${field}: ${p}`, field);
   const text = String(raw);

@@ -10,10 +10,10 @@ import { InputError } from '../engine/errors.js';
 import { parseLength, splitQuantity } from '../engine/spec/units.js';
 import { netStrain, worstStrainRun, type StrainLayer } from '../materials/strain-balance.js';
 import type { Objective, TargetLayer } from './types.js';
-import { quantity } from './common.js';
+import { quantity, unitNotes } from './common.js';
 
 const schema = z.object({
-  constraint: z.enum(['critical_thickness', 'direct_gap', 'total_thickness', 'strain_balance']),
+  constraint: z.enum(['critical_thickness', 'direct_gap', 'total_thickness', 'strain_balance']).describe('Which constraint: critical_thickness, strain_balance, direct_gap or total_thickness'),
   within: quantity.optional().describe('strain_balance: largest |net strain| of the stack, e.g. "0.05 %" (default 0.05 %)'),
   layers: z.array(z.number().int().nonnegative()).optional().describe('direct_gap: indices (from 0) of the layers that must be direct; default all'),
   at_most: quantity.optional().describe('total_thickness: the upper limit, e.g. "300 nm"'),
@@ -52,7 +52,11 @@ export const constraintObjective: Objective<ConstraintTarget> = {
   schema,
   needsWavefunctions: () => false,
   statesNeeded: () => [],
-  check: (t, field, geometry) => {
+  examples: [{ constraint: 'critical_thickness' }, { constraint: 'strain_balance', within: '0.05 %' }, { constraint: 'direct_gap', layers: [1, 2] }, { constraint: 'total_thickness', at_most: '300 nm' }],
+  check: (t, field, geometry, context) => {
+    const count = context?.labels?.length;
+    const beyond = t.layers?.find((i) => count !== undefined && i >= count);
+    if (beyond !== undefined) throw new InputError('bad-value', `${field}.layers: layer index ${beyond} is beyond the stack (${count} layers, counted from 0); give indices from 0 to ${count! - 1}`, `${field}.layers`);
     if (geometry === 'wire') {
       throw new InputError('bad-value', `${field}.constraint: ${t.constraint} reads the layers of a stack and a wire spec has none (its strain is not modelled as layers); drop this constraint or bound the wire's variables instead`, `${field}.constraint`);
     }
@@ -63,6 +67,7 @@ export const constraintObjective: Objective<ConstraintTarget> = {
       if (typeof l === 'string' || 'ml' in l || !(l.nm > 0)) throw new InputError('bad-value', `${field}.at_most: ${typeof l === 'string' ? l : 'give a positive length in nm'}`, `${field}.at_most`);
     }
   },
+  warnings: (t, field) => unitNotes([[t.at_most, `${field}.at_most`, 'nm']]),
   evaluate: (t, r) => {
     const { layers, total_nm } = r.structure;
     // check() refuses constraints on wires, so a result without layers here is a caller's bug.
@@ -74,7 +79,7 @@ export const constraintObjective: Objective<ConstraintTarget> = {
       const view = strainView(layers, r.structure.substrate);
       const run = view ? worstStrainRun(view.layers, view.aSubstrate_nm) : null;
       if (run) worst = Math.max(worst, run.ratio - 1);
-      return { label: 'below critical thickness', role: 'constraint', achieved: worst, goal: 0, unit: '', residual: Math.max(0, worst) * BREACH_SCALE, weight: 1, satisfied: worst <= 0 };
+      return { label: 'below critical thickness', role: 'constraint', achieved: worst, goal: 0, unit: 't/h_c − 1', residual: Math.max(0, worst) * BREACH_SCALE, weight: 1, satisfied: worst <= 0 };
     }
     if (t.constraint === 'strain_balance') {
       const limit = balancePercent(t.within, 'within');

@@ -3,7 +3,7 @@ import { z } from 'zod';
 import { InputError } from '../engine/errors.js';
 import { bandOfLabel } from '../engine/solve.js';
 import { HC_EV_NM } from '../engine/constants.js';
-import { parseEnergy, parseLength } from '../engine/spec/units.js';
+import { isUnitless, parseEnergy, parseLength } from '../engine/spec/units.js';
 import { MISSING_STATE_PENALTY, type Objective } from './types.js';
 import { quantity, transitionStates, weight } from './common.js';
 import { localise, wellLine } from './wells.js';
@@ -17,6 +17,8 @@ export type EnsembleTarget = z.infer<typeof schema>;
 
 /** The limit and how to express lines in its unit (nm of wavelength or meV). */
 function limitOf(t: EnsembleTarget, field: string): { value: number; unit: 'nm' | 'meV'; of: (eV: number) => number } {
+  // A spread may be a wavelength or an energy: a number alone says neither.
+  if (isUnitless(t.at_most)) throw new InputError('bad-value', `${field}.at_most: ${JSON.stringify(t.at_most)} has no unit, and a spread may be a wavelength or an energy; write e.g. "4 nm" or "3 meV"`, `${field}.at_most`);
   const e = parseEnergy(t.at_most);
   if (typeof e === 'number') {
     if (!(e > 0)) throw new InputError('bad-value', `${field}.at_most: must be positive, got ${JSON.stringify(t.at_most)}`, `${field}.at_most`);
@@ -33,6 +35,7 @@ export const ensembleObjective: Objective<EnsembleTarget> = {
   schema,
   needsWavefunctions: () => true,
   statesNeeded: (t) => t.ensemble.split('-').map((l) => bandOfLabel(l)?.band ?? l),
+  examples: [{ ensemble: 'e1-hh1', at_most: '4 nm' }],
   check: (t, field, geometry) => {
     if (geometry === 'wire') throw new InputError('bad-value', `${field}.ensemble: a wire has no wells of a stack; use this target on a layer stack`, `${field}.ensemble`);
     transitionStates(t.ensemble, `${field}.ensemble`);

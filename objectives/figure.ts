@@ -18,6 +18,7 @@ export const figureObjective: Objective<FigureTarget> = {
   schema,
   needsWavefunctions: () => true,
   statesNeeded: (t) => t.transition.split('-'),
+  examples: [{ maximize: 'overlap', transition: 'e1-hh1' }, { maximize: 'oscillator_strength', transition: 'e1-e2', weight: 0.2 }],
   check: (t, field, geometry) => {
     const [, b] = transitionStates(t.transition, `${field}.transition`);
     if (t.maximize === 'oscillator_strength' && geometry === 'wire') throw new InputError('bad-value', `${field}.maximize: oscillator strengths are computed for layer stacks only, got one on a wire spec; maximise the overlap or target the e1-e2 energy instead`, `${field}.maximize`);

@@ -7,8 +7,18 @@
 import { InputError } from '../engine/errors.js';
 import { bandOfLabel } from '../engine/solve.js';
 import type { BandName } from '../engine/profile.js';
-import type { Evaluation, Geometry, Objective, TargetSource } from './types.js';
+import type { Evaluation, Geometry, Objective, TargetContext, TargetSource } from './types.js';
+import { describeIssue, fieldName, fieldPath, objectKeys, quote } from '../engine/spec/issues.js';
+import { didYouMean } from '../engine/spec/suggest.js';
 import { transitionObjective } from './transition.js';
+import { absorptionPeakObjective } from './absorption-peak.js';
+import { gainPeakObjective } from './gain-peak.js';
+import { peakGainObjective } from './peak-gain.js';
+import { gainTransparencyObjective } from './gain-transparency.js';
+import { polarisationRatioObjective } from './polarisation-ratio.js';
+import { absorptionEdgeObjective } from './absorption-edge.js';
+import { absorptionWidthObjective } from './absorption-width.js';
+import { absorptionStrengthObjective } from './absorption-strength.js';
 import { subbandEdgeObjective } from './subband-edge.js';
 import { spacingObjective } from './spacing.js';
 import { boundStatesObjective } from './bound-states.js';
@@ -36,6 +46,14 @@ export const OBJECTIVES: readonly { readonly key: string; readonly objective: Ob
   entry('ensemble', ensembleObjective),
   entry('strain', strainObjective),
   entry('transparency', transparencyObjective),
+  entry('absorption_peak', absorptionPeakObjective),
+  entry('absorption_width', absorptionWidthObjective),
+  entry('absorption_strength', absorptionStrengthObjective),
+  entry('gain_peak', gainPeakObjective),
+  entry('peak_gain', peakGainObjective),
+  entry('gain_transparency', gainTransparencyObjective),
+  entry('polarisation_ratio', polarisationRatioObjective),
+  entry('absorption_edge', absorptionEdgeObjective),
   entry('transition', transitionObjective),
 ];
 
@@ -46,26 +64,58 @@ export interface CompiledTarget {
   readonly field: string;
 }
 
-/** Validates a spec's targets for a layer stack or a wire (default: stack); every error names the target's field. */
-export function compileTargets(raw: readonly Record<string, unknown>[] | undefined, geometry: Geometry = 'stack'): CompiledTarget[] {
+/** The keys a target kind takes, in its schema's order. */
+export const targetKeys = (objective: Objective<unknown>): string[] => objectKeys(objective.schema);
+
+/** " (did you mean …?)" for the first key of an entry close to a kind's key (transiton → transition), or ''. */
+function kindHint(entry: Readonly<Record<string, unknown>>): string {
+  const keys = Object.keys(entry);
+  const hint = keys.map((k) => didYouMean(k, OBJECTIVES.map((o) => o.key))).find((h) => h !== '');
+  return hint ?? '';
+}
+
+/**
+ * Validates a spec's targets for a layer stack or a wire (default: stack); every error names the
+ * target's field. With a context (engine/spec/check.ts) it also refuses targets that read a state
+ * beyond the solver's state limit or a layer label no layer has.
+ */
+export function compileTargets(raw: readonly Record<string, unknown>[] | undefined, geometry: Geometry = 'stack', context?: TargetContext): CompiledTarget[] {
   return (raw ?? []).map((entry, i) => {
     const field = `targets[${i}]`;
+    if (entry === null || typeof entry !== 'object' || Array.isArray(entry)) {
+      throw new InputError('schema', `${field}: a target is a mapping such as { transition: e1-hh1, wavelength: 976 nm, within: 2 nm }, got ${quote(entry)}; "wellsmith targets" lists every kind`, field);
+    }
     const hit = OBJECTIVES.find((o) => o.key in entry);
-    if (!hit) throw new InputError('schema', `${field}: unknown target kind with keys ${Object.keys(entry).join(', ') || '(none)'}; use one of ${OBJECTIVES.map((o) => o.key).join(', ')}`, field);
+    if (!hit) {
+      throw new InputError('schema', `${field}: no target kind among its keys (${Object.keys(entry).join(', ') || 'none'})${kindHint(entry)}; a target has one of the keys ${OBJECTIVES.map((o) => o.key).join(', ')} ("wellsmith targets" shows each with an example)`, field);
+    }
     const objective = hit.objective;
     const parsed = objective.schema.safeParse(entry, { reportInput: true });
     if (!parsed.success) {
       const issue = parsed.error.issues[0]!;
-      const key = issue.code === 'unrecognized_keys' ? issue.keys[0] : issue.path.join('.');
-      const f = key ? `${field}.${key}` : field;
-      const what = issue.code === 'unrecognized_keys' ? `unknown key for a ${objective.kind} target; allowed keys are in schema/spec.schema.json and "wellsmith design --help"` : issue.message;
-      throw new InputError('schema', `${f}: ${what}`, f);
+      const keys = targetKeys(objective);
+      if (issue.code === 'unrecognized_keys') {
+        const key = issue.keys[0] as string;
+        const f = `${field}.${key}`;
+        throw new InputError('schema', `${f}: unknown key "${key}" for a ${objective.kind} target${didYouMean(key, keys)}; a ${objective.kind} target takes ${keys.join(', ')} ("wellsmith targets ${objective.kind}" shows an example)`, f);
+      }
+      const described = describeIssue({ ...issue, path: [...fieldPath(field), ...issue.path] } as typeof issue);
+      throw new InputError('schema', `${described}; "wellsmith targets ${objective.kind}" shows an example`, fieldName([...fieldPath(field), ...issue.path]));
     }
     try {
-      objective.check(parsed.data, field, geometry);
+      objective.check(parsed.data, field, geometry, context);
     } catch (e) {
       if (e instanceof InputError && e.field === undefined) throw new InputError(e.code, `${field}: ${e.message}`, field);
       throw e;
+    }
+    if (context?.maxStates !== undefined && Number.isFinite(context.maxStates)) {
+      for (const label of objective.statesNeeded(parsed.data)) {
+        const b = bandOfLabel(label);
+        if (b && b.index > context.maxStates) {
+          const limit = geometry === 'wire' ? 'wire.states' : 'solver.max_states';
+          throw new InputError('bad-value', `${field}: reads ${label}, but ${limit} is ${context.maxStates}, so it is never solved; raise ${limit} to at least ${b.index} or target a lower state`, field);
+        }
+      }
     }
     return { objective, target: parsed.data, field };
   });
@@ -105,6 +155,3 @@ export function statesNeeded(targets: readonly CompiledTarget[]): Partial<Record
 }
 
 export const needsWavefunctions = (targets: readonly CompiledTarget[]): boolean => targets.some((t) => t.objective.needsWavefunctions(t.target));
-
-/** One line per target kind, for --help and reports. */
-export const describeObjectives = (): string => OBJECTIVES.map((o) => `  ${o.key.padEnd(16)} ${o.objective.description}`).join('\n');

@@ -3,7 +3,7 @@ import { z } from 'zod';
 import { InputError } from '../engine/errors.js';
 import { bandOfLabel } from '../engine/solve.js';
 import { MISSING_STATE_PENALTY, type Objective } from './types.js';
-import { checkStateLabel, energyOrKT, quantity, stateEnergy, weight } from './common.js';
+import { checkStateLabel, energyOrKT, quantity, stateEnergy, unitNotes, weight } from './common.js';
 
 const schema = z.object({
   spacing: z.string().describe('Two states of one band, e.g. e1-e2'),
@@ -21,6 +21,7 @@ export const spacingObjective: Objective<SpacingTarget> = {
   schema,
   needsWavefunctions: () => false,
   statesNeeded: (t) => t.spacing.split('-'),
+  examples: [{ spacing: 'e1-e2', at_least: '3 kT' }, { spacing: 'hh1-hh2', at_least: '40 meV', at_most: '60 meV' }],
   check: (t, field) => {
     const parts = t.spacing.split('-');
     if (parts.length !== 2) throw new InputError('bad-value', `${field}.spacing: expected two states such as e1-e2, got "${t.spacing}"`, `${field}.spacing`);
@@ -30,6 +31,7 @@ export const spacingObjective: Objective<SpacingTarget> = {
     if (t.at_least !== undefined) energyOrKT(t.at_least, 300, `${field}.at_least`);
     if (t.at_most !== undefined) energyOrKT(t.at_most, 300, `${field}.at_most`);
   },
+  warnings: (t, field) => unitNotes([[t.at_least, `${field}.at_least`, 'eV'], [t.at_most, `${field}.at_most`, 'eV']]),
   evaluate: (t, r) => {
     const T = r.structure.temperature_K;
     const [a, b] = statesOf(t);

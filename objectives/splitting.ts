@@ -3,7 +3,7 @@ import { z } from 'zod';
 import { InputError } from '../engine/errors.js';
 import { bandOfLabel } from '../engine/solve.js';
 import { MISSING_STATE_PENALTY, type Objective } from './types.js';
-import { checkStateLabel, energyOrKT, quantity, stateEnergy, weight } from './common.js';
+import { checkStateLabel, energyOrKT, quantity, stateEnergy, unitNotes, weight } from './common.js';
 
 const schema = z.object({
   splitting: z.string().describe('Two states of different bands, e.g. hh1-lh1: the first one\'s energy minus the second\'s'),
@@ -19,6 +19,7 @@ export const splittingObjective: Objective<SplittingTarget> = {
   schema,
   needsWavefunctions: () => false,
   statesNeeded: (t) => t.splitting.split('-'),
+  examples: [{ splitting: 'hh1-lh1', at_least: '40 meV' }],
   check: (t, field) => {
     const parts = t.splitting.split('-');
     if (parts.length !== 2) throw new InputError('bad-value', `${field}.splitting: expected two states such as hh1-lh1, got "${t.splitting}"`, `${field}.splitting`);
@@ -29,6 +30,7 @@ export const splittingObjective: Objective<SplittingTarget> = {
     const hi = t.at_most === undefined ? Infinity : energyOrKT(t.at_most, 300, `${field}.at_most`);
     if (!(lo <= hi)) throw new InputError('bad-value', `${field}: at_least must not exceed at_most, got ${JSON.stringify(t.at_least)} and ${JSON.stringify(t.at_most)}`, field);
   },
+  warnings: (t, field) => unitNotes([[t.at_least, `${field}.at_least`, 'eV'], [t.at_most, `${field}.at_most`, 'eV']]),
   evaluate: (t, r) => {
     const T = r.structure.temperature_K;
     const [a, b] = t.splitting.split('-') as [string, string];

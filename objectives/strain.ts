@@ -28,7 +28,11 @@ export const strainObjective: Objective<StrainTarget> = {
   schema,
   needsWavefunctions: () => false,
   statesNeeded: () => [],
-  check: (t, field, geometry) => {
+  examples: [{ strain: '-1 %', layer: 'well', within: '0.05 %' }],
+  check: (t, field, geometry, context) => {
+    if (context?.labels && !context.labels.some((l) => labelMatches(l, t.layer))) {
+      throw new InputError('bad-value', `${field}.layer: no layer is labelled "${t.layer}" (labels: ${[...new Set(context.labels.map((l) => l.replace(/\[[\d.]+\]$/, '')))].slice(0, 8).join(', ')}); give the label of the layers whose strain is targeted`, `${field}.layer`);
+    }
     if (geometry === 'wire') throw new InputError('bad-value', `${field}.strain: a wire's strain is not modelled as layers; use this target on a layer stack`, `${field}.strain`);
     percentOf(t.strain, `${field}.strain`);
     if (!(percentOf(t.within, `${field}.within`) > 0)) throw new InputError('bad-value', `${field}.within: must be positive, got ${JSON.stringify(t.within)}`, `${field}.within`);

@@ -2,7 +2,7 @@
 import { z } from 'zod';
 import { InputError } from '../engine/errors.js';
 import { MISSING_STATE_PENALTY, type Objective } from './types.js';
-import { checkStateLabel, energyOf, quantity, stateEnergy, weight } from './common.js';
+import { checkStateLabel, energyOf, quantity, stateEnergy, unitNotes, weight } from './common.js';
 import { bandOfLabel, findState } from '../engine/solve.js';
 
 const schema = z.object({
@@ -14,8 +14,8 @@ const schema = z.object({
 }).strict();
 export type SubbandEdgeTarget = z.infer<typeof schema>;
 
-function mode(t: SubbandEdgeTarget): 'confinement' | 'energy' {
-  if ((t.confinement === undefined) === (t.energy === undefined)) throw new InputError('bad-value', `subband_edge ${t.subband_edge}: give exactly one of confinement or energy`);
+function mode(t: SubbandEdgeTarget, field?: string): 'confinement' | 'energy' {
+  if ((t.confinement === undefined) === (t.energy === undefined)) throw new InputError('bad-value', `${field ? `${field}: ` : ''}subband_edge ${t.subband_edge}: give exactly one of confinement (above the band extremum, e.g. "40 meV") or energy (absolute, e.g. "1.52 eV")`, field);
   return t.confinement !== undefined ? 'confinement' : 'energy';
 }
 
@@ -25,11 +25,31 @@ export const subbandEdgeObjective: Objective<SubbandEdgeTarget> = {
   schema,
   needsWavefunctions: () => false,
   statesNeeded: (t) => [t.subband_edge],
+  examples: [
+    { subband_edge: 'e1', confinement: '40 meV', within: '5 meV' },
+    { subband_edge: 'hh1', energy: '-0.68 eV', within: '10 meV' },
+  ],
   check: (t, field) => {
     checkStateLabel(t.subband_edge, `${field}.subband_edge`);
-    const m = mode(t);
+    const m = mode(t, field);
     energyOf(t[m]!, `${field}.${m}`);
     if (!(energyOf(t.within, `${field}.within`) > 0)) throw new InputError('bad-value', `${field}.within: must be positive, got ${JSON.stringify(t.within)}`, `${field}.within`);
+  },
+  warnings: (t, field, context) => {
+    const m = mode(t, field);
+    const notes = unitNotes([[t[m], `${field}.${m}`, 'eV'], [t.within, `${field}.within`, 'eV']]);
+    const band = bandOfLabel(t.subband_edge)!.band;
+    const edge = context.bands?.[band]?.edge_eV;
+    if (m === 'energy' && edge !== undefined && Number.isFinite(edge)) {
+      // A state lies above its band's extremum (below it for holes): a goal beyond the extremum is out of reach.
+      const goal = energyOf(t.energy!, `${field}.energy`);
+      const sign = band === 'electron' ? 1 : -1;
+      if (sign * (goal - edge) < 0) {
+        const depth = Math.abs(goal - edge) * 1000;
+        notes.push(`${field}.energy: ${JSON.stringify(t.energy)} is an energy on the absolute scale, ${depth.toFixed(0)} meV ${sign > 0 ? 'below the conduction-band minimum' : 'above the valence-band maximum'} of this structure (${edge.toFixed(4)} eV at the nominal values), where no ${t.subband_edge} can lie; for a level ${JSON.stringify(t.energy)} from the band ${sign > 0 ? 'minimum' : 'maximum'} write confinement: ${JSON.stringify(t.energy)}`);
+      }
+    }
+    return notes;
   },
   evaluate: (t, r) => {
     const m = mode(t);

@@ -4,8 +4,8 @@ import { InputError } from '../engine/errors.js';
 import { MISSING_STATE_PENALTY, type Objective, type TargetSource } from './types.js';
 import { bandOfLabel } from '../engine/solve.js';
 import { findWell, localise, wellLine } from './wells.js';
-import { excitonBinding, photonScale, quantity, transitionEnergy, transitionStates, weight } from './common.js';
-import { parseLength, parseEnergy, splitQuantity } from '../engine/spec/units.js';
+import { excitonBinding, PHOTON_UNITS, photonScale, quantity, transitionEnergy, transitionStates, unitNotes, weight } from './common.js';
+import { isUnitless, parseLength, parseEnergy, splitQuantity } from '../engine/spec/units.js';
 
 const schema = z.object({
   transition: z.string().describe('e1-hh1, e1-lh1, e1-e2 …'),
@@ -19,17 +19,18 @@ const schema = z.object({
 }).strict();
 export type TransitionTarget = z.infer<typeof schema>;
 
-function goalOf(t: TransitionTarget): { key: 'energy' | 'wavelength' | 'wavenumber'; raw: string | number } {
+function goalOf(t: TransitionTarget, field: string): { key: 'energy' | 'wavelength' | 'wavenumber'; raw: string | number } {
   const keys = (['energy', 'wavelength', 'wavenumber'] as const).filter((k) => t[k] !== undefined);
-  if (keys.length !== 1) throw new InputError('bad-value', `give exactly one of energy, wavelength or wavenumber for transition ${t.transition}, got ${keys.length === 0 ? 'none' : keys.join(' and ')}`);
+  if (keys.length !== 1) throw new InputError('bad-value', `${field}: give exactly one of energy, wavelength or wavenumber for transition ${t.transition}, got ${keys.length === 0 ? 'none' : keys.join(' and ')}`, field);
   return { key: keys[0]!, raw: t[keys[0]!]! };
 }
 
-/** The window half-width in the goal's unit. */
+/** The window half-width in the goal's unit; a number without a unit is in the goal's unit. */
 function windowOf(t: TransitionTarget, unit: string, field: string): number {
   const raw = t.within;
   let w: number | string;
-  if (unit === 'nm' || unit === 'µm') {
+  if (isUnitless(raw)) w = splitQuantity(raw)!.value;
+  else if (unit === 'nm' || unit === 'µm') {
     const l = parseLength(raw);
     w = typeof l === 'string' ? l : 'ml' in l ? 'a wavelength window takes nm or µm' : unit === 'µm' ? l.nm / 1000 : l.nm;
   } else if (unit === 'cm⁻¹') {
@@ -62,20 +63,33 @@ export const transitionObjective: Objective<TransitionTarget> = {
   needsWavefunctions: (t) => t.exciton === true || t.well !== undefined,
   // A well's e1 may be any electron state of the stack, so a well's line reads whole bands.
   statesNeeded: (t) => (t.well === undefined ? t.transition.split('-') : t.transition.split('-').map((l) => bandOfLabel(l)!.band)),
-  check: (t, field, geometry) => {
+  examples: [
+    { transition: 'e1-hh1', wavelength: '976 nm', within: '2 nm' },
+    { transition: 'e1-e2', energy: '120 meV', within: '5 meV' },
+    { transition: 'e1-hh1', wavelength: '1550 nm', within: '5 nm', well: 'well[3]' },
+  ],
+  check: (t, field, geometry, context) => {
     const [, upper] = transitionStates(t.transition, `${field}.transition`);
+    if (typeof t.well === 'string' && context?.labels && !context.labels.includes(t.well)) {
+      throw new InputError('bad-value', `${field}.well: no layer is labelled "${t.well}" (labels: ${[...new Set(context.labels)].slice(0, 8).join(', ')}${context.labels.length > 8 ? ', …' : ''}); name a well by its label, e.g. "well[3]", or by its number from the substrate side`, `${field}.well`);
+    }
     if (t.well !== undefined && (geometry === 'wire' || t.exciton)) {
       throw new InputError('bad-value', `${field}.well: ${geometry === 'wire' ? 'a wire has no wells of a stack' : 'the exciton estimate is for the lowest pair of the whole stack'}; remove "well" or ${geometry === 'wire' ? 'use a layer stack' : '"exciton"'}`, `${field}.well`);
     }
     if (t.exciton && (geometry === 'wire' || upper.startsWith('e'))) {
       throw new InputError('bad-value', `${field}.exciton: the exciton estimate covers interband lines of layer stacks, got ${t.transition} on a ${geometry === 'wire' ? 'wire' : 'single band'}; remove "exciton" or target an e-hh or e-lh line of a well`, `${field}.exciton`);
     }
-    const g = goalOf(t);
-    windowOf(t, photonScale(g.raw, `${field}.${g.key}`).unit, field);
+    const g = goalOf(t, field);
+    windowOf(t, photonScale(g.raw, `${field}.${g.key}`, g.key).unit, field);
+  },
+  warnings: (t, field) => {
+    const g = goalOf(t, field);
+    const unit = photonScale(g.raw, `${field}.${g.key}`, g.key).unit;
+    return unitNotes([[g.raw, `${field}.${g.key}`, PHOTON_UNITS[g.key]], [t.within, `${field}.within`, unit]]);
   },
   evaluate: (t, r) => {
-    const g = goalOf(t);
-    const scale = photonScale(g.raw, g.key);
+    const g = goalOf(t, 'target');
+    const scale = photonScale(g.raw, g.key, g.key);
     const within = windowOf(t, scale.unit, 'target');
     const bare = t.well === undefined ? transitionEnergy(r, t.transition) : ownLine(r, t.well, t.transition);
     // A binding that could not be estimated (a custom material without a permittivity) counts as missing.

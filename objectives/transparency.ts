@@ -9,7 +9,7 @@ import { InputError } from '../engine/errors.js';
 import { quasiFermiLevels } from '../engine/observables/carriers.js';
 import { parseSheetDensity } from '../engine/spec/units.js';
 import { MISSING_STATE_PENALTY, type Objective, type TargetSource } from './types.js';
-import { quantity, weight } from './common.js';
+import { quantity, unitNotes, weight } from './common.js';
 import { wellsOf } from './wells.js';
 
 const schema = z.object({
@@ -60,10 +60,12 @@ export const transparencyObjective: Objective<TransparencyTarget> = {
   // In-plane masses come from the wavefunctions; every bound subband holds carriers.
   needsWavefunctions: () => true,
   statesNeeded: () => ['electron', 'heavy_hole', 'light_hole'],
+  examples: [{ transparency: 'per_well', at_most: '1.5e12 cm-2' }],
   check: (t, field, geometry) => {
     if (geometry === 'wire') throw new InputError('bad-value', `${field}.transparency: a wire's carriers are per length, not per area; use this target on a layer stack`, `${field}.transparency`);
     if (!(limitOf(t.at_most, `${field}.at_most`) > 0)) throw new InputError('bad-value', `${field}.at_most: must be positive`, `${field}.at_most`);
   },
+  warnings: (t, field) => unitNotes([[t.at_most, `${field}.at_most`, 'cm-2']]),
   evaluate: (t, r) => {
     const limit = limitOf(t.at_most, 'at_most');
     const wells = t.transparency === 'per_well' && r.structure.layers ? Math.max(1, wellsOf(r.structure.layers).length) : 1;

@@ -85,17 +85,43 @@ export interface Evaluation {
   readonly satisfied: boolean;
 }
 
+/**
+ * What a spec tells its targets before any solve: the geometry, the stack's layer labels and the
+ * solver's state limit (for checks), and the band extrema at the nominal point (for warnings).
+ */
+export interface TargetContext {
+  readonly geometry: Geometry;
+  /** Layer labels as resolved ("well[3]" inside a repeat, "layer 2" when unlabelled); undefined for a wire. */
+  readonly labels?: readonly string[];
+  /** Most states solved per band (solver.max_states, or wire.states); Infinity when every bound state is. */
+  readonly maxStates?: number;
+  /** Per band, its extremum and continuum edge (eV, absolute) at the nominal values, when the structure could be built. */
+  readonly bands?: Readonly<Record<BandName, { readonly edge_eV: number; readonly barrier_eV: number }>>;
+}
+
 export interface Objective<T> {
   /** Name used in --help, errors and reports. */
   readonly kind: string;
   readonly description: string;
+  /** The target as written in a spec; its key descriptions and examples go into the JSON Schema and `wellsmith targets`. */
   readonly schema: z.ZodType<T>;
+  /** Targets as a spec writes them (YAML flow maps in `wellsmith targets` and the JSON Schema); every registered kind has at least one. */
+  readonly examples?: readonly Readonly<Record<string, unknown>>[];
   /** True when evaluate reads overlaps, dipoles or oscillator strengths (wavefunctions needed). */
   readonly needsWavefunctions: (target: T) => boolean;
   /** State labels evaluate reads ("e1", "hh2"), or a band name ("electron") for all its states; a search solves only those. */
   readonly statesNeeded: (target: T) => readonly string[];
-  /** Throws InputError (naming `field`) for a target that can never be evaluated, e.g. a malformed state label or a layer constraint on a wire. */
-  readonly check: (target: T, field: string, geometry: Geometry) => void;
+  /**
+   * Throws InputError (naming `field`) for a target that can never be evaluated, e.g. a malformed
+   * state label, a layer constraint on a wire, or (given the context) a label no layer has.
+   */
+  readonly check: (target: T, field: string, geometry: Geometry, context?: TargetContext) => void;
+  /**
+   * Notes on a valid target that may not mean what its writer meant: a number without a unit read
+   * in the key's default unit, an absolute energy no state of its band can reach. Each note starts
+   * with the field it is about.
+   */
+  readonly warnings?: (target: T, field: string, context: TargetContext) => readonly string[];
   readonly evaluate: (target: T, result: TargetSource) => Evaluation;
 }
 

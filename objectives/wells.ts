@@ -205,3 +205,76 @@ export function stateWells(r: TargetSource): Readonly<Record<BandName, readonly 
   for (const band of BANDS) out[band] = ws.bands[band].map((h) => ({ state: h.label, well: ws.wells[h.well]!.label, weight: h.weight, level: h.level }));
   return out;
 }
+
+/** Where a state of a stack lives: in its wells, or spread over the guiding and cladding layers around them. */
+export type StateRegion = 'well' | 'guide';
+
+export interface StateRegionOf {
+  readonly state: string;
+  readonly region: StateRegion;
+  /** Share (0–1) of the state's |ψ|² over the layers where it can travel (its energy beyond their edge) that lies in well layers. */
+  readonly wellShare: number;
+}
+
+/** What stateRegions reads: a solved stack with every band's edges per layer and sampled wavefunctions. */
+export interface RegionSource {
+  readonly bands: Readonly<Record<BandName, { readonly states: readonly { readonly label: string; readonly energy_eV: number }[] }>>;
+  readonly structure: { readonly layers: readonly { readonly thickness_nm: number; readonly bands: readonly { readonly Ec: number; readonly Ehh: number; readonly Elh: number }[] }[] };
+  readonly wavefunctions?: { readonly z_nm: Float64Array; readonly psi: Readonly<Record<BandName, readonly Float64Array[]>> };
+}
+
+const EDGE_KEY = { electron: 'Ec', heavy_hole: 'Ehh', light_hole: 'Elh' } as const;
+
+/**
+ * Where each state lives (our rule, stated): a band's wells are the layers whose edge (at the
+ * layer's centre) is a local extremum of that band, deeper than both neighbours (the outer layers
+ * need one); a state can travel in the layers whose edge it lies beyond (above Ec for electrons,
+ * below Ehh/Elh for holes). A state lives in the wells when at least half of its |ψ|² over those
+ * layers (trapezoid rule on the sampled grid) lies in well layers; otherwise it spreads over the
+ * guiding and cladding layers (a waveguide's states, above the well's own barriers). Tails under
+ * the barriers do not count, so a state at the barrier edge of a detector's well stays the well's.
+ * Null when the result has no sampled wavefunctions, or a band has no well.
+ */
+export function stateRegions(r: RegionSource): Readonly<Record<BandName, readonly StateRegionOf[]>> | null {
+  const waves = r.wavefunctions;
+  const layers = r.structure.layers;
+  if (!waves || waves.z_nm.length < 2 || layers.length === 0) return null;
+  const starts: number[] = [];
+  let total = 0;
+  for (const l of layers) { starts.push(total); total += l.thickness_nm; }
+  const out = {} as Record<BandName, StateRegionOf[]>;
+  for (const band of BANDS) {
+    const key = EDGE_KEY[band];
+    const sign = band === 'electron' ? 1 : -1;
+    // Particle-sense edges: deeper is lower for every band.
+    const centre = layers.map((l) => sign * l.bands[Math.floor(l.bands.length / 2)]![key]);
+    const lowest = layers.map((l) => Math.min(...l.bands.map((b) => sign * b[key])));
+    const wells = new Set(centre.flatMap((e, i) => {
+      const nb = [centre[i - 1], centre[i + 1]].filter((x): x is number => x !== undefined);
+      return nb.length > 0 && nb.every((x) => e < x) ? [i] : [];
+    }));
+    if (wells.size === 0) return null;
+    out[band] = r.bands[band].states.map((s, k) => {
+      const psi = waves.psi[band][k];
+      if (!psi) return { state: s.label, region: 'well', wellShare: NaN };
+      const weight = layers.map(() => 0);
+      let j = 0;
+      for (let i = 0; i + 1 < waves.z_nm.length; i++) {
+        const mid = (waves.z_nm[i]! + waves.z_nm[i + 1]!) / 2;
+        while (j + 1 < layers.length && mid >= starts[j + 1]!) j++;
+        weight[j]! += ((psi[i]! ** 2 + psi[i + 1]! ** 2) / 2) * (waves.z_nm[i + 1]! - waves.z_nm[i]!);
+      }
+      const E = sign * s.energy_eV;
+      let free = 0;
+      let inWells = 0;
+      weight.forEach((w, i) => {
+        if (lowest[i]! >= E) return;
+        free += w;
+        if (wells.has(i)) inWells += w;
+      });
+      const share = free > 0 ? inWells / free : 1;
+      return { state: s.label, region: share >= 0.5 ? 'well' : 'guide', wellShare: share };
+    });
+  }
+  return out;
+}

@@ -3,7 +3,9 @@ import yargs from 'yargs';
 import { EXIT, type Outcome } from './exit.js';
 import { runSolve } from './solve.js';
 import { runMaterials } from './materials.js';
-import { runDesign, TARGET_HELP } from './design.js';
+import { runDesign, targetHelp } from './design.js';
+import { runTargets } from './targets.js';
+import { closestNames } from '../spec/suggest.js';
 import { REPORT_SAMPLES } from '../report/defaults.js';
 import { runTolerance } from './tolerance.js';
 import { DEFAULT_TOLERANCE } from '../tolerance/analyse.js';
@@ -18,6 +20,57 @@ const reportCommand = () => import('./report.js');
 const campaignCommand = () => import('./campaign.js');
 const mergeCommand = () => import('./merge.js');
 
+const COMMANDS = ['solve', 'design', 'tolerance', 'report', 'materials', 'targets', 'campaign', 'merge'];
+
+/** Options of each command, for "did you mean" on a mistyped one (yargs says only "Unknown argument"). */
+const OPTIONS: Readonly<Record<string, readonly string[]>> = {
+  solve: ['json', 'wavefunctions', 'maps', 'plot'],
+  design: ['starts', 'seed', 'top', 'workers', 'step', 'evaluations', 'out', 'json', 'robust'],
+  tolerance: ['samples', 'seed', 'workers', 'dx', 'rate', 'dT', 'ml', 'ml-sigma', 'x-sigma', 'rate-sigma', 'periods', 'json'],
+  report: ['out', 'growth-sheet', 'tolerance', 'samples', 'workers'],
+  materials: ['on', 'temperature', 'json'],
+  targets: ['json'],
+  campaign: ['out', 'workers', 'shard', 'export', 'slurm', 'retry-failed', 'json'],
+  merge: [],
+};
+
+/** Options whose value may start with "-" (a negative number, "-1:0.15,…"), which yargs would take for an option of its own. */
+const VALUE_OPTIONS = new Set(['--ml', '--temperature', '--seed', '--dx', '--rate', '--dT', '--step']);
+
+/** "--ml -1:0.5" -> "--ml=-1:0.5", so that a value starting with "-" and a digit stays the option's value. */
+export function joinNegativeValues(argv: readonly string[]): string[] {
+  const out: string[] = [];
+  for (let i = 0; i < argv.length; i++) {
+    const a = argv[i]!;
+    const next = argv[i + 1];
+    if (VALUE_OPTIONS.has(a) && next !== undefined && /^-[\d.]/.test(next)) {
+      out.push(`${a}=${next}`);
+      i++;
+    } else out.push(a);
+  }
+  return out;
+}
+
+/** yargs' "Unknown argument: x" with the command or option that was probably meant. */
+function withSuggestions(msg: string, argv: readonly string[]): string {
+  const m = /^Unknown arguments?: (.+)$/.exec(msg);
+  if (!m) return msg;
+  const command = argv.find((a) => !a.startsWith('-'));
+  const known = command !== undefined && COMMANDS.includes(command) ? OPTIONS[command]! : null;
+  // Without a known command only the first word matters: the rest are that command's arguments.
+  const unknown = known === null ? m[1]!.split(', ').slice(0, 1) : m[1]!.split(', ');
+  const hints = unknown.map((arg) => {
+    if (known === null) {
+      const hit = closestNames(arg, COMMANDS, 1)[0];
+      return hit ? `"${arg}" is not a command (did you mean "${hit}"?)` : `"${arg}" is not a command; the commands are ${COMMANDS.join(', ')}`;
+    }
+    const hit = closestNames(arg, known, 1)[0];
+    const flag = arg.length === 1 ? `-${arg}` : `--${arg}`;
+    return hit ? `${command} has no option ${flag} (did you mean --${hit}?)` : `${command} has no option ${flag}; its options are ${known.map((o) => `--${o}`).join(', ')}`;
+  });
+  return hints.join('; ');
+}
+
 /** Runs the command line and returns what to print; main() below does the printing. */
 export async function cli(argv: string[]): Promise<Outcome> {
   let outcome: Outcome = { code: EXIT.ok, stdout: '', stderr: '' };
@@ -25,7 +78,7 @@ export async function cli(argv: string[]): Promise<Outcome> {
   // yargs lays out a command's whole help text on every run (to cache it): only --help shows it,
   // so other runs get it unwrapped and without the long epilogue, at a fraction of the cost.
   const wantsHelp = argv.some((a) => a === '--help' || a === '-h');
-  await yargs(argv)
+  await yargs(joinNegativeValues(argv))
     .scriptName('wellsmith')
     .usage('$0 <command> [options]\n\nInverse design of semiconductor quantum wells and wires.')
     .command('solve <spec>', 'states, transitions and density of states of a fixed structure', (y) =>
@@ -49,7 +102,7 @@ export async function cli(argv: string[]): Promise<Outcome> {
         .option('out', { type: 'string', describe: 'folder for design-N.yaml specs and ranking.csv' })
         .option('json', { type: 'boolean', default: false, describe: 'machine-readable output on stdout' })
         .option('robust', { type: 'boolean', default: false, describe: `rank the top designs by Monte Carlo growth yield (${ROBUST_SAMPLES} samples, default growth errors of "wellsmith tolerance"), then by loss` })
-        .epilogue(wantsHelp ? TARGET_HELP : ''),
+        .epilogue(wantsHelp ? targetHelp() : ''),
     async (a) => { outcome = await runDesign({ spec: a.spec!, starts: a.starts, seed: a.seed, top: a.top, workers: a.workers, step: a.step, evaluations: a.evaluations, out: a.out, json: a.json, robust: a.robust }); })
     .command('tolerance <spec>', 'growth-error sensitivities, Monte Carlo yield and monolayer-island lines of one design', (y) =>
       y.positional('spec', { type: 'string', demandOption: true, describe: 'spec with nominal values (e.g. a design-N.yaml written by design --out)' })
@@ -83,6 +136,10 @@ export async function cli(argv: string[]): Promise<Outcome> {
         .option('temperature', { type: 'string', default: '300 K', describe: 'temperature, e.g. "77 K"' })
         .option('json', { type: 'boolean', default: false, describe: 'machine-readable output on stdout' }),
     (a) => { outcome = runMaterials({ formula: a.formula, on: a.on, temperature: a.temperature, json: a.json }); })
+    .command('targets [kind]', 'the target kinds a spec\'s "targets:" takes, each with its keys and an example', (y) =>
+      y.positional('kind', { type: 'string', describe: 'one kind (transition, subband_edge, …) with every key' })
+        .option('json', { type: 'boolean', default: false, describe: 'machine-readable output on stdout' }),
+    (a) => { outcome = runTargets({ kind: a.kind, json: a.json }); })
     .command('campaign <file>', 'run or resume a campaign of design jobs into a run store (or write Slurm scripts for it)', (y) =>
       y.positional('file', { type: 'string', demandOption: true, describe: 'campaign file (YAML or JSON): spec, sweep, design options' })
         .option('out', { type: 'string', describe: 'run folder holding campaign.sqlite (default: FILE without extension + ".run"); rerun to resume' })
@@ -97,7 +154,7 @@ export async function cli(argv: string[]): Promise<Outcome> {
       y.positional('out', { type: 'string', demandOption: true, describe: 'run folder to merge into (created if missing)' })
         .positional('dirs', { type: 'string', array: true, demandOption: true, describe: 'shard run folders' }),
     async (a) => { outcome = (await mergeCommand()).runMerge({ out: a.out!, dirs: a.dirs! }); })
-    .demandCommand(1, 'give a command: solve, design, tolerance, campaign, merge, report, materials (see --help)')
+    .demandCommand(1, `give a command: ${COMMANDS.join(', ')} (see --help)`)
     .strict()
     .help()
     // Given, not looked up: yargs searches for package.json from its own folder, which a bundle does not have.
@@ -105,7 +162,7 @@ export async function cli(argv: string[]): Promise<Outcome> {
     .wrap(wantsHelp ? Math.min(100, process.stdout.columns ?? 100) : null)
     .fail((msg, err) => {
       if (err) throw err;
-      usage = `wellsmith: ${msg}; see "wellsmith --help"\n`;
+      usage = `wellsmith: ${withSuggestions(msg, argv)}; see "wellsmith --help"\n`;
     })
     .exitProcess(false)
     .parseAsync();

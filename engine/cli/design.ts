@@ -1,19 +1,19 @@
 /** `wellsmith design SPEC`: ranked, growable designs for the spec's targets. */
 import { readdirSync, rmSync } from 'node:fs';
 import { join } from 'node:path';
-import { describeObjectives } from '../../objectives/index.js';
-import { stateWells } from '../../objectives/wells.js';
+import { stateRegions, stateWells } from '../../objectives/wells.js';
 import { defaultDesignOptions, design, type Design, type DesignResult } from '../design/search.js';
-import { isWireSolve } from '../design/problem.js';
+import { evaluateDesign, isWireSolve, prepareDesign, valuesOf } from '../design/problem.js';
 import { wireJson } from '../wire/describe.js';
 import { designSpecText } from '../design/write.js';
 import { loadSpecFile } from '../spec/load.js';
 import type { Spec } from '../spec/schema.js';
 import { InputError } from '../errors.js';
 import { EXIT, failure, success, type Outcome } from './exit.js';
-import { fixed, sig, table, toJson } from './format.js';
-import { csvLine, writeFileAtomic } from './output.js';
-import { progressBar } from './progress.js';
+import { fixed, sig, table, toJson, withUnit } from './format.js';
+import { csvLine, ensureFolder, writeFileAtomic } from './output.js';
+import { noteLongWork, progressBar } from './progress.js';
+import { targetsSummary } from './targets.js';
 import { solveJson } from './solve.js';
 import { describeRobust, robustJson } from './tolerance.js';
 import { robustRank } from '../tolerance/robust.js';
@@ -37,13 +37,13 @@ export interface DesignArgs {
 /** Monte Carlo samples per design for --robust: yield to about ±3 % (binomial σ at 50 %). */
 export const ROBUST_SAMPLES = 200;
 
-export const TARGET_HELP = `Target kinds (under "targets:" in the spec):\n${describeObjectives()}`;
+/** The close of `design --help`: every target kind with its keys and an example. */
+export const targetHelp = (): string => `Target kinds (under "targets:" in the spec; "wellsmith targets KIND" shows every key of one):\n${targetsSummary()}`;
 
 const variableCell = (v: Design['variables'][number]): string =>
   v.kind === 'fraction' ? v.value.toFixed(3) : v.kind === 'strain' ? `${v.value.toFixed(2)} %` : `${fixed(v.nm, 3)} nm / ${fixed(v.ml, 1)} ML`;
 
-const achievedCell = (e: Design['evaluations'][number]): string =>
-  e.achieved === null ? 'missing' : `${sig(e.achieved, 6)}${e.unit ? ` ${e.unit}` : ''}`;
+const achievedCell = (e: Design['evaluations'][number]): string => (e.achieved === null ? 'missing' : withUnit(e.achieved, e.unit));
 
 /** A target's cell: achieved value and residual; a figure's value; a constraint's verdict. */
 function evaluationCell(e: Design['evaluations'][number]): string {
@@ -71,8 +71,8 @@ export function designJson(r: DesignResult): unknown {
       preferences: d.preferences,
       start: d.start,
       ...((isWireSolve(d.result) ? wireJson(d.result, false) : solveJson(d.result, false)) as object),
-      // States of a multi-well stack by the well they live in (objectives/wells.ts).
-      ...(isWireSolve(d.result) ? {} : { state_wells: stateWells(d.result) }),
+      // States of a multi-well stack by the well they live in, and every state's region (objectives/wells.ts).
+      ...(isWireSolve(d.result) ? {} : { state_wells: stateWells(d.result), state_regions: stateRegions(d.result) }),
     })),
   };
 }
@@ -91,7 +91,7 @@ export function describeDesign(r: DesignResult, spec: Spec): string {
   const lines = [spec.title ? `${spec.title}\n` : '', `Designs (${r.starts} starts, seed ${r.seed}, ${r.evaluations} solves${r.failures ? `, ${r.failures} failed candidates` : ''}); residuals in window half-widths, |r| ≤ 1 meets the target${order}`, table(header, rows)];
   if (r.status !== 'ok') {
     const bound = first.variables.filter((v) => v.atBound).map((v) => `${v.name} at its ${v.atBound} bound`);
-    const missed = first.evaluations.filter((e) => !e.satisfied).map((e) => `${e.label}: closest ${achievedCell(e)} (goal ${e.goal === null ? '–' : sig(e.goal, 6)} ${e.unit})`);
+    const missed = first.evaluations.filter((e) => !e.satisfied).map((e) => `${e.label}: closest ${achievedCell(e)} (goal ${withUnit(e.goal, e.unit)})`);
     lines.push('', `status: ${r.status}: ${r.message}`, ...missed.map((m) => `  ${m}`), ...(bound.length ? [`  ${bound.join('; ')}: widen that bound or change the materials`] : []));
   }
   return lines.join('\n');
@@ -114,6 +114,19 @@ function writeOutputs(dir: string, r: DesignResult, spec: Spec, args: DesignArgs
   }
 }
 
+/**
+ * Seconds one search evaluation of the spec takes here: a candidate at the middle of the bounds,
+ * solved once to warm the code up (the first solve pays for compiling it) and timed the second time.
+ */
+function evaluationSeconds(spec: Spec): number {
+  const problem = prepareDesign(spec);
+  const centre = valuesOf(problem.variables, problem.variables.map((v) => (v.from + v.to) / 2));
+  evaluateDesign(problem, centre);
+  const t0 = performance.now();
+  evaluateDesign(problem, centre);
+  return (performance.now() - t0) / 1000;
+}
+
 export async function runDesign(args: DesignArgs): Promise<Outcome> {
   let locate: ((f: string) => number | undefined) | undefined;
   const bar = progressBar('design');
@@ -126,11 +139,15 @@ export async function runDesign(args: DesignArgs): Promise<Outcome> {
     const loaded = loadSpecFile(args.spec);
     locate = loaded.locate;
     if (args.robust && loaded.spec.wire !== undefined) throw new InputError('bad-value', '--robust: growth-yield ranking perturbs the layers of a stack and a wire spec has none; drop --robust for this spec');
+    if (args.out !== undefined) ensureFolder(args.out, '--out');
     let best = Infinity;
     const defaults = defaultDesignOptions(loaded.spec);
     const starts = args.starts ?? defaults.starts;
+    const evaluations = args.evaluations ?? defaults.maxEvaluations;
+    const each = evaluationSeconds(loaded.spec);
+    noteLongWork('this design', (each * starts * evaluations) / Math.min(args.workers, starts), `${starts} starts × up to ${evaluations} evaluations at ${each.toPrecision(2)} s each on ${Math.min(args.workers, starts)} worker${args.workers > 1 ? 's' : ''}; fewer --starts or --evaluations take less`);
     const result = await design(loaded.spec, {
-      starts, seed: args.seed, top: args.top, workers: args.workers, compositionStep: args.step, maxEvaluations: args.evaluations ?? defaults.maxEvaluations,
+      starts, seed: args.seed, top: args.top, workers: args.workers, compositionStep: args.step, maxEvaluations: evaluations,
       onProgress: (done, total, last) => {
         if (last.type === 'design-start') best = Math.min(best, last.snapped.loss);
         bar.update(done, total, `best loss ${sig(best, 3)}`);
@@ -140,8 +157,8 @@ export async function runDesign(args: DesignArgs): Promise<Outcome> {
     bar.stop();
     if (args.out !== undefined) writeOutputs(args.out, result, loaded.spec, args);
     const text = robust ? `${describeDesign(result, loaded.spec)}\n\n${describeRobust(robust)}` : describeDesign(result, loaded.spec);
-    const json = robust ? { ...(designJson(result) as object), robust: robustJson(robust) } : designJson(result);
-    return success(`${args.json ? toJson(json) : text}\n`, result.status === 'ok' ? EXIT.ok : EXIT.physics);
+    const json = { ...(designJson(result) as object), ...(robust ? { robust: robustJson(robust) } : {}), warnings: loaded.warnings };
+    return success(`${args.json ? toJson(json) : text}\n`, result.status === 'ok' ? EXIT.ok : EXIT.physics, loaded.warnings);
   } catch (e) {
     bar.stop();
     return failure(e, locate);

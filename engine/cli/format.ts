@@ -29,3 +29,19 @@ export function toJson(value: unknown): string {
     return v;
   }, 2);
 }
+
+/**
+ * Decimals of each unit wherever a value is printed (tables, reports, messages), so one quantity
+ * always reads the same: eV to 0.01 meV, meV to 0.01, nm to 0.01, µm to 0.001, cm⁻¹ to 0.1.
+ */
+const DECIMALS: Readonly<Record<string, number>> = { eV: 5, meV: 2, nm: 2, 'µm': 3, 'cm⁻¹': 1, '%': 3, states: 0, 't/h_c − 1': 3, m0: 4, '': 4 };
+
+/** A value in its unit's one format (DECIMALS; cm⁻² and unknown units with 4 significant figures); "–" when missing. */
+export const inUnit = (x: number | null | undefined, unit: string): string =>
+  x === null || x === undefined ? '–' : DECIMALS[unit] !== undefined ? fixed(x, DECIMALS[unit]) : sig(x, 4);
+
+/** inUnit followed by the unit ("991.41 nm"). */
+export const withUnit = (x: number | null | undefined, unit: string): string => (x === null || x === undefined ? '–' : `${inUnit(x, unit)}${unit ? ` ${unit}` : ''}`);
+
+/** A shift in its unit's one format with its sign ("+0.12"); "–" when not finite. */
+export const signedIn = (x: number, unit: string): string => (Number.isFinite(x) ? `${x >= 0 ? '+' : ''}${inUnit(x, unit)}` : '–');

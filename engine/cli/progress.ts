@@ -1,30 +1,68 @@
-/** A progress bar on stderr, only when stderr is a terminal; stdout stays for results. */
+/**
+ * What a long command shows while it works, on stderr only (stdout stays for results): a progress
+ * bar when stderr is a terminal, drawn once the work has taken PROGRESS_DELAY_MS (a quick command
+ * never flashes one), and an up-front note, on any stderr, when the predicted work takes minutes.
+ */
 import { createRequire } from 'node:module';
 import type cliProgressModule from 'cli-progress';
 
 // Loaded only for a terminal: piped and CI runs never pay its start-up time.
 const load = (): typeof cliProgressModule => createRequire(import.meta.url)('cli-progress') as typeof cliProgressModule;
 
+/** Work shorter than this (ms) draws no bar. */
+export const PROGRESS_DELAY_MS = 2000;
+
 export interface Progress {
   readonly update: (done: number, total: number, note: string) => void;
   readonly stop: () => void;
 }
 
-export function progressBar(label: string): Progress {
+export function progressBar(label: string, delayMs = PROGRESS_DELAY_MS): Progress {
   if (!process.stderr.isTTY) return { update: () => undefined, stop: () => undefined };
-  const cliProgress = load();
-  const bar = new cliProgress.SingleBar({
-    stream: process.stderr,
-    format: `${label} [{bar}] {value}/{total} · eta {eta_formatted} · {note}`,
-    hideCursor: true,
-    clearOnComplete: true,
-  }, cliProgress.Presets.shades_classic);
-  let started = false;
+  const created = Date.now();
+  let bar: cliProgressModule.SingleBar | undefined;
+  let last: { done: number; total: number; note: string } | undefined;
+  // A timer draws the bar once the delay has passed even when no update comes (the pool's first
+  // tasks can run for a while); updates keep it current after that.
+  const start = (): void => {
+    if (bar || !last) return;
+    const cliProgress = load();
+    bar = new cliProgress.SingleBar({
+      stream: process.stderr,
+      format: `${label} [{bar}] {value}/{total} · {duration_formatted} · eta {eta_formatted} · {note}`,
+      hideCursor: true,
+      clearOnComplete: true,
+    }, cliProgress.Presets.shades_classic);
+    bar.start(last.total, last.done, { note: last.note });
+  };
+  const timer = setTimeout(start, delayMs);
+  timer.unref();
   return {
     update: (done, total, note) => {
-      if (!started) { bar.start(total, 0, { note }); started = true; }
-      bar.update(done, { note });
+      last = { done, total, note };
+      if (!bar && Date.now() - created >= delayMs) start();
+      if (bar) {
+        bar.setTotal(total);
+        bar.update(done, { note });
+      }
     },
-    stop: () => { if (started) bar.stop(); },
+    stop: () => {
+      clearTimeout(timer);
+      bar?.stop();
+    },
   };
+}
+
+/** Predicted work longer than this (s) gets a note before it starts. */
+export const LONG_WORK_S = 60;
+
+/** "about 3 min" / "about 1.5 h" for a duration in seconds. */
+export const durationText = (s: number): string => (s < 90 ? `about ${Math.round(s)} s` : s < 5400 ? `about ${Math.round(s / 60)} min` : `about ${(s / 3600).toFixed(1)} h`);
+
+/**
+ * Writes "wellsmith: note: …" to stderr at once when `seconds` exceeds LONG_WORK_S, before the work
+ * it predicts; `how` says what the prediction rests on and how to shorten it.
+ */
+export function noteLongWork(what: string, seconds: number, how: string): void {
+  if (seconds > LONG_WORK_S) process.stderr.write(`wellsmith: note: ${what} is predicted to take ${durationText(seconds)} (${how})\n`);
 }

@@ -1,8 +1,8 @@
 /** `wellsmith report INPUT`: a self-contained HTML report, and optionally the growth sheet as CSV. */
 import { basename, dirname, extname, join } from 'node:path';
-import { bandDiagramSvg, buildReport, growthCsv, loadReportInput, toleranceReport, type ReportInput } from '../report/index.js';
+import { bandDiagramSvg, buildReport, growthCsv, isRunStorePath, loadReportInput, toleranceReport, type ReportInput } from '../report/index.js';
 import { nominalVariables } from '../structure.js';
-import { DEFAULT_TOLERANCE } from '../tolerance/analyse.js';
+import { DEFAULT_TOLERANCE, MAX_SAMPLES } from '../tolerance/analyse.js';
 import { WIRE_TOLERANCE_MESSAGE } from '../tolerance/measure.js';
 import { loadSpecFile } from '../spec/load.js';
 import { solve } from '../solve.js';
@@ -42,14 +42,21 @@ async function withTolerance(input: ReportInput, args: ReportArgs): Promise<Repo
   if (input.kind !== 'solve' || input.scored === null) {
     throw new InputError('bad-value', `--tolerance: ${args.input} is not a spec with targets; give such a spec or a design-N.yaml written by "wellsmith design --out" (report "wellsmith tolerance --json" output without --tolerance)`, 'tolerance');
   }
-  if (!Number.isInteger(args.samples) || args.samples < 0) throw new InputError('bad-value', `--samples: must be a whole number ≥ 0, got ${args.samples}; e.g. --samples 500`);
+  if (!Number.isInteger(args.samples) || args.samples < 0 || args.samples > MAX_SAMPLES) throw new InputError('bad-value', `--samples: must be a whole number from 0 to ${MAX_SAMPLES}, got ${args.samples}; e.g. --samples 500`);
   if (!Number.isInteger(args.workers) || args.workers < 1) throw new InputError('bad-value', `--workers: must be a whole number ≥ 1, got ${args.workers}`);
   const spec = loadSpecFile(args.input).spec;
   return { ...input, tolerance: await toleranceReport(spec, nominalVariables(spec), { ...DEFAULT_TOLERANCE, samples: args.samples, workers: args.workers }) };
 }
 
-/** Default output: INPUT with its extension replaced by .html, beside it (a run folder RUN gives RUN.html beside the folder). */
-export const defaultReportPath = (input: string): string => { const trimmed = input.replace(/[\\/]+$/, ''); return join(dirname(trimmed), `${basename(trimmed, extname(trimmed))}.html`); };
+/**
+ * Default output: inside a campaign's run folder, RUN/report.html (beside its campaign.sqlite when
+ * that file is given); for a file, INPUT with its extension replaced by .html, beside it.
+ */
+export function defaultReportPath(input: string): string {
+  const trimmed = input.replace(/[\\/]+$/, '');
+  if (isRunStorePath(trimmed)) return trimmed.toLowerCase().endsWith('.sqlite') ? join(dirname(trimmed), 'report.html') : join(trimmed, 'report.html');
+  return join(dirname(trimmed), `${basename(trimmed, extname(trimmed))}.html`);
+}
 
 export async function runReport(args: ReportArgs): Promise<Outcome> {
   try {
@@ -65,7 +72,8 @@ export async function runReport(args: ReportArgs): Promise<Outcome> {
       writeFileAtomic(args.growthSheet, growthCsv(input.growth));
     }
     writeFileAtomic(out, await buildReport(input));
-    return success(`report written to ${out}${args.growthSheet ? `; growth sheet to ${args.growthSheet}` : ''}\n`, exitOf(input));
+    const warnings = input.kind === 'solve' || input.kind === 'wire' ? input.warnings ?? [] : [];
+    return success(`report written to ${out}${args.growthSheet ? `; growth sheet to ${args.growthSheet}` : ''}\n`, exitOf(input), warnings);
   } catch (e) {
     return failure(e);
   }

@@ -2,13 +2,15 @@
 import { InputError } from '../errors.js';
 import { loadSpecFile } from '../spec/load.js';
 import { nominalVariables } from '../structure.js';
-import { tolerance, DEFAULT_TOLERANCE, type ToleranceResult } from '../tolerance/analyse.js';
+import { tolerance, DEFAULT_TOLERANCE, MAX_SAMPLES, type ToleranceResult } from '../tolerance/analyse.js';
 import type { GrowthModel, MonolayerModel } from '../tolerance/montecarlo.js';
 import type { SensitivityOptions } from '../tolerance/sensitivity.js';
+import { measure, prepareTolerance } from '../tolerance/measure.js';
+import type { Spec } from '../spec/schema.js';
 import type { RobustResult } from '../tolerance/robust.js';
 import { EXIT, failure, success, type Outcome } from './exit.js';
-import { fixed, sig, table, toJson } from './format.js';
-import { progressBar } from './progress.js';
+import { fixed, inUnit, sig, signedIn, table, toJson, withUnit } from './format.js';
+import { noteLongWork, progressBar } from './progress.js';
 
 export interface ToleranceArgs {
   readonly spec: string;
@@ -46,26 +48,36 @@ const modelText = (m: MonolayerModel): string =>
 
 const signed = (x: number, digits: number): string => (Number.isFinite(x) ? `${x >= 0 ? '+' : ''}${x.toFixed(digits)}` : '–');
 
+/** "; 37 samples lose a quantity a target reads (e1-e2 energy 37) and count as failures", or '' when none does. */
+function missingText(mc: NonNullable<ToleranceResult['montecarlo']>, q: ToleranceResult['quantities']): string {
+  const lost = q.flatMap((x, k) => (x.target && (mc.missing[k] ?? 0) > 0 ? [`${x.label} missing in ${mc.missing[k]}`] : []));
+  return lost.length ? `; failures include samples where a quantity a target reads does not exist (${lost.join(', ')})` : '';
+}
+
+/** The worst sample: its loss, every quantity, and the growth errors that made it (per layer: ML and, for mixed alloys, Δx; the growth rate). */
+export function worstText(w: NonNullable<NonNullable<ToleranceResult['montecarlo']>['worst']>, q: ToleranceResult['quantities']): string {
+  const values = q.map((x, k) => `${x.label} ${Number.isFinite(w.values[k]) ? withUnit(w.values[k]!, x.unit) : 'missing'}`).join('; ');
+  const errors = w.layers.map((l) => `${l.label} ${l.ml >= 0 ? '+' : ''}${l.ml} ML${l.dx === null ? '' : `, Δx ${signed(l.dx, 4)}`}`).join('; ');
+  return `worst sample #${w.index}: loss ${sig(w.loss, 3)}; ${values}; growth errors: ${errors}; growth rate ${signed(((w.perturbation.thicknessScale ?? 1) - 1) * 100, 2)} %`;
+}
+
 export function describeTolerance(r: ToleranceResult, title: string | undefined, s: SensitivityOptions): string {
   const q = r.quantities;
   const lines = [title ? `${title}\n` : '', `Design: ${Object.entries(r.values).map(([k, v]) => `${k} = ${sig(v, 6)}`).join(', ') || '(no variables)'}`,
-    `Nominal: ${q.map((x, k) => `${x.label} ${sig(r.nominal.values[k]!, 6)} ${x.unit}`).join('; ')}; every target ${r.nominal.satisfied ? 'met' : 'NOT met'}`];
+    `Nominal: ${q.map((x, k) => `${x.label} ${Number.isFinite(r.nominal.values[k]) ? withUnit(r.nominal.values[k]!, x.unit) : 'missing'}`).join('; ')}; every target ${r.nominal.satisfied ? 'met' : 'NOT met'}`];
   if (r.status !== 'ok') return [...lines, '', `status: ${r.status}: ${r.message}`].join('\n');
   lines.push('', `Sensitivities (Δx ${s.dx}, growth rate ${s.ratePercent} %, ΔT ${s.dT} K); shifts at −/+ step; impact = largest |Δ residual| in window half-widths`,
     table(['perturbation', ...q.map((x) => `Δ ${x.label} (${x.unit})`), 'impact'],
-      r.sensitivities.map((row) => [row.label, ...q.map((_, k) => `${signed(row.minus[k]!, 3)} / ${signed(row.plus[k]!, 3)}`), fixed(row.impact, 3)])));
+      r.sensitivities.map((row) => [row.label, ...q.map((x, k) => `${signedIn(row.minus[k]!, x.unit)} / ${signedIn(row.plus[k]!, x.unit)}`), fixed(row.impact, 3)])));
   const mc = r.montecarlo;
   if (mc) {
     lines.push('', `Monte Carlo: ${mc.samples} samples, seed ${mc.seed}; per layer ${modelText(mc.model.monolayers)}; composition σ ${mc.model.compositionSigma}; growth rate σ ${mc.model.rateSigmaPercent} %`,
-      table(['quantity', 'unit', 'mean', 'σ', 'p5', 'p50', 'p95'], mc.distributions.map((d, k) => [q[k]!.label, q[k]!.unit || '-', sig(d.mean, 6), sig(d.sigma, 3), sig(d.p5, 6), sig(d.p50, 6), sig(d.p95, 6)])),
-      `yield ${fixed(mc.yield * 100, 1)} % (every target inside its window)${mc.failures ? `; ${mc.failures} samples failed to solve (counted out)` : ''}${mc.model.periods === 'correlated' ? '; periods err alike (correlated)' : ''}`);
+      table(['quantity', 'unit', 'mean', 'σ', 'p5', 'p50', 'p95', 'missing'], mc.distributions.map((d, k) => [q[k]!.label, q[k]!.unit || '-', inUnit(d.mean, q[k]!.unit), inUnit(d.sigma, q[k]!.unit), inUnit(d.p5, q[k]!.unit), inUnit(d.p50, q[k]!.unit), inUnit(d.p95, q[k]!.unit), String(mc.missing[k] ?? 0)])),
+      `yield ${fixed(mc.yield * 100, 1)} % (every target inside its window, every quantity a target reads present)${missingText(mc, q)}${mc.failures ? `; ${mc.failures} samples failed to solve (counted as failures)` : ''}${mc.model.periods === 'correlated' ? '; periods err alike (correlated)' : ''}`);
     for (const e of mc.ensembles) {
       lines.push(`ensemble of the wells' ${e.transition} lines: σ ${sig(e.sigma_meV, 3)} meV over ${e.lines} lines (inhomogeneous FWHM ${sig(e.fwhm_meV, 3)} meV, Gaussian); within one sample the wells spread by σ ${sig(e.withinSample_meV, 3)} meV`);
     }
-    if (mc.worst) {
-      const p = mc.worst.perturbation;
-      lines.push(`worst sample #${mc.worst.index}: loss ${sig(mc.worst.loss, 3)}; ${q.map((x, k) => `${x.label} ${sig(mc.worst!.values[k]!, 6)}`).join('; ')}; ML errors [${(p.thickness_ML ?? []).join(', ')}], growth rate ${signed(((p.thicknessScale ?? 1) - 1) * 100, 2)} %`);
-    }
+    if (mc.worst) lines.push(worstText(mc.worst, q));
   }
   for (const w of r.islands) {
     lines.push('', `Monolayer islands of layer ${w.layer + 1}${w.label ? ` (${w.label})` : ''}: ${fixed(w.monolayers, 2)} ML of ${fixed(w.monolayer_nm, 4)} nm; a well is a layer whose Ec is below its neighbours'`,
@@ -76,11 +88,20 @@ export function describeTolerance(r: ToleranceResult, title: string | undefined,
   return lines.join('\n');
 }
 
+/** Seconds one Monte Carlo sample takes here: the nominal structure measured after a first, warming measurement. */
+function measureSeconds(spec: Spec, values: Readonly<Record<string, number>>): number {
+  const problem = prepareTolerance(spec, values);
+  measure(problem);
+  const t0 = performance.now();
+  measure(problem);
+  return (performance.now() - t0) / 1000;
+}
+
 export async function runTolerance(args: ToleranceArgs): Promise<Outcome> {
   let locate: ((f: string) => number | undefined) | undefined;
   const bar = progressBar('tolerance');
   try {
-    for (const [name, v, min, max] of [['--samples', args.samples, 0, 10_000_000], ['--workers', args.workers, 1, 1024]] as const) {
+    for (const [name, v, min, max] of [['--samples', args.samples, 0, MAX_SAMPLES], ['--workers', args.workers, 1, 1024]] as const) {
       if (!Number.isInteger(v) || v < min || v > max) throw new InputError('bad-value', `${name}: must be a whole number from ${min} to ${max}, got ${v}`);
     }
     if (!Number.isSafeInteger(args.seed) || args.seed < 0) throw new InputError('bad-value', `--seed: must be a whole number ≥ 0, got ${args.seed}`);
@@ -95,12 +116,15 @@ export async function runTolerance(args: ToleranceArgs): Promise<Outcome> {
     const sensitivity: SensitivityOptions = { dx: args.dx, ratePercent: args.rate, dT: args.dT };
     const loaded = loadSpecFile(args.spec);
     locate = loaded.locate;
-    const result = await tolerance(loaded.spec, nominalVariables(loaded.spec), {
+    const values = nominalVariables(loaded.spec);
+    const each = measureSeconds(loaded.spec, values);
+    noteLongWork(`this tolerance analysis`, (each * args.samples) / args.workers, `${args.samples} samples at ${each.toPrecision(2)} s each on ${args.workers} worker${args.workers > 1 ? 's' : ''}; fewer --samples take less`);
+    const result = await tolerance(loaded.spec, values, {
       ...DEFAULT_TOLERANCE, samples: args.samples, seed: args.seed, workers: args.workers, growth, sensitivity,
       onProgress: (done, total) => bar.update(done, total, 'sample batches'),
     });
     bar.stop();
-    return success(`${args.json ? toJson(result) : describeTolerance(result, loaded.spec.title, sensitivity)}\n`, result.status === 'ok' ? EXIT.ok : EXIT.physics);
+    return success(`${args.json ? toJson({ ...result, warnings: loaded.warnings }) : describeTolerance(result, loaded.spec.title, sensitivity)}\n`, result.status === 'ok' ? EXIT.ok : EXIT.physics, loaded.warnings);
   } catch (e) {
     bar.stop();
     return failure(e, locate);

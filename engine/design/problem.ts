@@ -9,12 +9,16 @@ import { InputError } from '../errors.js';
 import { compileTargets, scoreTargets, needsWavefunctions, statesNeeded, type CompiledTarget, type Scored } from '../../objectives/index.js';
 import type { Geometry } from '../../objectives/types.js';
 import type { BandName } from '../profile.js';
-import { solveStructure, settingsOf, type SolveResult, type SolverSettings } from '../solve.js';
+import { BANDS, DEFAULT_STATE_LIMIT, solveStructure, settingsOf, type SolveResult, type SolverSettings } from '../solve.js';
 import { buildStructure, variablesOf, type VariableInfo } from '../structure.js';
 import type { Spec } from '../spec/schema.js';
 import { buildWireStructure, type WireSettings } from '../wire/structure.js';
 import { solveWire, solveWireStructure, type WireSolveResult } from '../wire/solve.js';
 import { bandOfLabel } from '../solve.js';
+import { hasDoping, dopingOfSpec } from '../poisson/doping.js';
+import { dopedOptionsOf, solveDopedStructure, type DopedOptions, type DopedSolveResult } from '../poisson/doped.js';
+import { atBias, biasPoints } from '../poisson/bias.js';
+import { INTERSUBBAND_ABSORPTION_KINDS } from '../../objectives/absorption-common.js';
 import { compilePreferences, preferencesNeedWavefunctions, preferenceStates, preferenceValues, searchScore, type Preference } from './preferences.js';
 
 export interface DesignProblem {
@@ -29,10 +33,12 @@ export interface DesignProblem {
   readonly states: Partial<Record<BandName, number>>;
   /** Secondary objectives once the targets are met (spec `prefer:`). */
   readonly preferences: readonly Preference[];
+  /** A doped stack's self-consistent settings (engine/poisson/doped.ts); its absorption is computed in the search only when a target reads it. */
+  readonly doped?: { readonly options: DopedOptions; readonly absorptionInSearch: boolean };
 }
 
 /** A solve of either geometry; objectives read the part they share (objectives/types.ts TargetSource). */
-export type DesignSolve = SolveResult | WireSolveResult;
+export type DesignSolve = SolveResult | WireSolveResult | DopedSolveResult;
 
 /** Whether a design's solve is of a wire (only a wire result carries |ψ|² maps). */
 export const isWireSolve = (r: DesignSolve): r is WireSolveResult => 'maps' in r;
@@ -68,7 +74,9 @@ export function prepareDesign(spec: Spec): DesignProblem {
     const b = bandOfLabel(label)!;
     if (states[b.band] !== undefined) states[b.band] = Math.max(states[b.band]!, b.index);
   }
-  return { spec, geometry, variables, targets, settings: settingsOf(spec), wavefunctions: needsWavefunctions(targets) || preferencesNeedWavefunctions(preferences), states, preferences };
+  const settings = settingsOf(spec);
+  const doped = geometry === 'stack' && hasDoping(spec) ? { options: dopedOptionsOf(spec, settings), absorptionInSearch: targets.some((t) => INTERSUBBAND_ABSORPTION_KINDS.has(t.objective.kind)) } : undefined;
+  return { spec, geometry, variables, targets, settings, wavefunctions: needsWavefunctions(targets) || preferencesNeedWavefunctions(preferences), states, preferences, ...(doped ? { doped } : {}) };
 }
 
 export const valuesOf = (variables: readonly VariableInfo[], x: readonly number[]): Record<string, number> =>
@@ -79,22 +87,46 @@ export type Evaluated =
   | { readonly ok: true; readonly loss: number; readonly score: number; readonly scored: Scored; readonly result: DesignSolve }
   | { readonly ok: false; readonly loss: number; readonly score: number; readonly error: string };
 
+/**
+ * States per band a stack's solve must hold for the targets: a band they read whole (absent from
+ * problem.states) is solved whole, not cut to the default limit of long stacks (DEFAULT_STATE_LIMIT);
+ * with `full`, bands read up to a count within that limit are left to the full solve's default.
+ */
+function stackStates(problem: DesignProblem, full: boolean): Partial<Record<BandName, number>> {
+  const out: Partial<Record<BandName, number>> = {};
+  for (const band of BANDS) {
+    const n = problem.states[band];
+    if (n === undefined) out[band] = Infinity;
+    else if (!full || n > DEFAULT_STATE_LIMIT) out[band] = n;
+  }
+  return out;
+}
+
+/** A stack's solve: a doped stack self-consistently at its (first) bias, with its absorption when `absorption`. */
+function stackSolve(problem: DesignProblem, values: Readonly<Record<string, number>>, options: { wavefunctions?: boolean; states: Partial<Record<BandName, number>> }, absorption: boolean): SolveResult | DopedSolveResult {
+  const structure = buildStructure(problem.spec, values);
+  if (!problem.doped) return solveStructure(structure, problem.settings, options);
+  const biased = atBias(structure, biasPoints(problem.spec, structure)[0]!);
+  const doped = problem.doped.options;
+  return solveDopedStructure(biased, dopingOfSpec(problem.spec, structure)!, problem.settings, absorption ? doped : { ...doped, absorption: null }, options);
+}
+
 /** The search's solve of a candidate: wells as configured (only the states targets read), wires on coarse settings. */
 function searchSolve(problem: DesignProblem, values: Readonly<Record<string, number>>): DesignSolve {
-  if (problem.geometry === 'stack') return solveStructure(buildStructure(problem.spec, values), problem.settings, { wavefunctions: problem.wavefunctions, states: problem.states });
+  if (problem.geometry === 'stack') return stackSolve(problem, values, { wavefunctions: problem.wavefunctions, states: stackStates(problem, false) }, problem.doped?.absorptionInSearch ?? false);
   const structure = buildWireStructure(problem.spec, values);
   return solveWireStructure({ ...structure, settings: searchWireSettings(structure.settings) }, { states: problem.states });
 }
 
 /** The full solve of a design with the spec's own settings (what `wellsmith solve` reports). */
 export function fullSolve(problem: DesignProblem, values: Readonly<Record<string, number>>): DesignSolve {
-  return problem.geometry === 'stack' ? solveStructure(buildStructure(problem.spec, values), problem.settings) : solveWire(problem.spec, values);
+  return problem.geometry === 'stack' ? stackSolve(problem, values, { states: stackStates(problem, true) }, true) : solveWire(problem.spec, values);
 }
 
 export function evaluateDesign(problem: DesignProblem, values: Readonly<Record<string, number>>): Evaluated {
   try {
     const result = searchSolve(problem, values);
-    if (result.status === 'unphysical') return { ok: false, loss: Infinity, score: Infinity, error: result.message };
+    if (result.status === 'unphysical' || result.status === 'not-converged') return { ok: false, loss: Infinity, score: Infinity, error: result.message };
     const scored = scoreTargets(problem.targets, result);
     if (!Number.isFinite(scored.loss)) return { ok: false, loss: Infinity, score: Infinity, error: 'loss is not finite' };
     const prefs = problem.preferences;

@@ -9,14 +9,16 @@ import { join } from 'node:path';
 import type { TopLevelSpec } from 'vega-lite';
 import { fixed, sig } from '../cli/format.js';
 import { InputError } from '../errors.js';
-import { RunStore, STORE_FILE, type JobRecord } from '../store/store.js';
+import { RunStore, STORE_FILE, storedResult, type DesignRecord, type JobRecord } from '../store/store.js';
+import { fullSolve, prepareDesign } from '../design/problem.js';
 import type { SolveResult } from '../solve.js';
 import type { Spec } from '../spec/schema.js';
-import { compileTargets, scoreTargets } from '../../objectives/index.js';
+import { compileTargets, needsWavefunctions, scoreTargets } from '../../objectives/index.js';
 import type { Evaluation } from '../../objectives/types.js';
 import { figureHtml, htmlTable, type Section } from './html.js';
 import { PALETTE } from './palette.js';
 import { renderSvg } from './render.js';
+import { bestDesigns, campaignDesignSections } from './campaign-plots.js';
 
 /** One job of a campaign with its best (rank-1) design scored against that job's own targets. */
 export interface CampaignJob {
@@ -73,13 +75,21 @@ interface JobRow extends JobRecord {
   readonly parameter_set: string | null;
 }
 
-function jobOf(row: JobRow, best: { loss: number; satisfied: number; result_json: string } | undefined): CampaignJob {
+/**
+ * A job's best design scored against its own targets. The store keeps no wavefunctions (format 2),
+ * so targets that read them (overlaps, oscillator strengths) are scored on the design solved again
+ * from the job's spec and the design's values: the same deterministic solve the search made.
+ */
+function jobOf(row: JobRow, best: DesignRecord | undefined): CampaignJob {
   const base = { index: row.idx, name: row.name, state: row.state, status: row.status, message: row.message, evaluations: row.evaluations };
   if (!best) return { ...base, loss: null, satisfied: null, targets: [], transition: [] };
   try {
     const spec = JSON.parse(row.spec_json) as Spec;
     const targets = compileTargets(spec.targets, spec.wire !== undefined ? 'wire' : 'stack');
-    const result = JSON.parse(best.result_json, reviveNumbers) as SolveResult;
+    const stored = storedResult(best) as unknown as SolveResult;
+    const result = needsWavefunctions(targets) && stored.wavefunctions === undefined
+      ? fullSolve(prepareDesign(spec), JSON.parse(best.values_json) as Record<string, number>)
+      : stored;
     return { ...base, loss: best.loss, satisfied: best.satisfied === 1, targets: scoreTargets(targets, result).evaluations, transition: targets.map((t) => t.objective.kind === 'transition') };
   } catch (e) {
     if (e instanceof InputError) throw e;
@@ -223,5 +233,5 @@ export async function campaignSections(report: CampaignReport): Promise<Section[
   return [jobs, {
     id: 'sweep', title: swept ? `Sweep of ${swept.label}` : 'Best loss per job',
     html: `${figureHtml(await renderSvg(plot.spec), plot.caption)}${table ? `\n${table}` : ''}`,
-  }];
+  }, ...(await campaignDesignSections(report, bestDesigns(report.path)))];
 }

@@ -6,6 +6,8 @@
  * that --json leaves out), or the JSON of `wellsmith tolerance --json` (its summary only), or a
  * campaign's run store (engine/report/campaign.ts).
  */
+import { hasDoping } from '../poisson/doping.js';
+import { solveDoped } from '../poisson/doped.js';
 import { InputError } from '../errors.js';
 import { parseSpecText, readInputText, type LoadedSpec } from '../spec/load.js';
 import { solve, type SolveResult } from '../solve.js';
@@ -30,9 +32,9 @@ export interface RankedDesign {
 }
 
 export type ReportInput =
-  | { readonly kind: 'solve'; readonly origin: string; readonly result: SolveResult; readonly scored: Scored | null; readonly growth: GrowthSheet | null; readonly tolerance?: ToleranceReport }
+  | { readonly kind: 'solve'; readonly origin: string; readonly result: SolveResult; readonly scored: Scored | null; readonly growth: GrowthSheet | null; readonly tolerance?: ToleranceReport; readonly warnings?: readonly string[] }
   | { readonly kind: 'tolerance'; readonly origin: string; readonly report: ToleranceReport }
-  | { readonly kind: 'wire'; readonly origin: string; readonly result: WireSolveResult }
+  | { readonly kind: 'wire'; readonly origin: string; readonly result: WireSolveResult; readonly warnings?: readonly string[] }
   | { readonly kind: 'campaign'; readonly origin: string; readonly report: CampaignReport }
   | { readonly kind: 'design'; readonly origin: string; readonly status: string; readonly message: string; readonly seed: number; readonly starts: number; readonly designs: readonly RankedDesign[]; readonly best: SolveResult };
 
@@ -55,8 +57,8 @@ function resolveRecorded(v: Record<string, unknown>, where: string): SolveResult
 
 /** A report input from a spec already loaded. */
 export function inputFromSpec(loaded: LoadedSpec): ReportInput {
-  if (loaded.spec.wire !== undefined) return { kind: 'wire', origin: loaded.origin, result: solveWire(loaded.spec) };
-  const result = solve(loaded.spec);
+  if (loaded.spec.wire !== undefined) return { kind: 'wire', origin: loaded.origin, result: solveWire(loaded.spec), warnings: loaded.warnings };
+  const result = hasDoping(loaded.spec) ? solveDoped(loaded.spec) : solve(loaded.spec);
   const targets = compileTargets(loaded.spec.targets);
   return {
     kind: 'solve',
@@ -64,6 +66,7 @@ export function inputFromSpec(loaded: LoadedSpec): ReportInput {
     result,
     scored: targets.length > 0 ? scoreTargets(targets, result) : null,
     growth: loaded.spec.growth ? growthSheet(result.structure, loaded.spec.growth.rates) : null,
+    warnings: loaded.warnings,
   };
 }
 

@@ -20,18 +20,22 @@ const MAX_CURVE_POINTS = 360;
 interface Point { readonly z: number; readonly E: number; readonly series: string; readonly curve: string; readonly i: number }
 
 /**
- * Band-edge polyline of one band: the solver's own profile (engine/profile.ts), so graded layers
- * appear as slopes and a field as a tilt, drawn with a vertical jump at each slice boundary.
+ * Band-edge polyline of one band between z = from and z = to (nm): the solver's own profile
+ * (engine/profile.ts), so graded layers appear as slopes and a field as a tilt, drawn with a
+ * vertical jump at each slice boundary.
  */
-function edgePoints(r: SolveResult, band: BandName): Point[] {
+function edgePoints(r: SolveResult, band: BandName, from = 0, to = Infinity): Point[] {
   const p = buildBandProfile(r.structure, band, { maxSlice_nm: r.settings.slice_nm, nonparabolic: false });
   const out: Point[] = [];
   let z = 0;
   for (const s of p.slices) {
-    const E = p.sign * s.V;
-    out.push({ z, E, series: BAND_NAMES[band], curve: band, i: out.length });
+    const a = Math.max(z, from);
+    const b = Math.min(z + s.width_nm, to);
     z += s.width_nm;
-    out.push({ z, E, series: BAND_NAMES[band], curve: band, i: out.length });
+    if (b <= a) continue;
+    const E = p.sign * s.V;
+    out.push({ z: a, E, series: BAND_NAMES[band], curve: band, i: out.length });
+    out.push({ z: b, E, series: BAND_NAMES[band], curve: band, i: out.length });
   }
   return out;
 }
@@ -39,15 +43,51 @@ function edgePoints(r: SolveResult, band: BandName): Point[] {
 /** States drawn per band in the band diagram (the tables list them all): more only clutters the well. */
 export const DIAGRAM_STATES = 3;
 
+/** One panel of the band diagram: the conduction band, or the two valence bands. */
+interface Panel {
+  readonly bands: readonly BandName[];
+  readonly title: string;
+  /** Energy range shown (eV). */
+  readonly lo: number;
+  readonly hi: number;
+}
+
+/** Pixel sizes of the band diagram (each panel) and the font of its state labels. */
+const DIAGRAM = { width: 720, height: 230, label: 11, minGap: 13 } as const;
+
+/**
+ * The z range worth showing (nm): the layers where some band lies inside its barrier (below the
+ * continuum edge for electrons, above it for holes), with a margin of 30 % of that span (at least
+ * 4 nm) each side, within the stack. Thick claddings then no longer squeeze the wells.
+ */
+export function confiningRange(r: SolveResult): { readonly from: number; readonly to: number } {
+  const total = r.structure.total_nm;
+  let first = Infinity;
+  let last = -Infinity;
+  let z = 0;
+  for (const l of r.structure.layers) {
+    const inside = BANDS.some((b) => {
+      const sign = b === 'electron' ? 1 : -1;
+      const key = b === 'electron' ? 'Ec' : b === 'heavy_hole' ? 'Ehh' : 'Elh';
+      return l.bands.some((x) => sign * (x[key] - r.bands[b].barrier_eV) < -1e-9);
+    });
+    if (inside) { first = Math.min(first, z); last = Math.max(last, z + l.thickness_nm); }
+    z += l.thickness_nm;
+  }
+  if (!Number.isFinite(first)) return { from: 0, to: total };
+  const margin = Math.max(4, 0.3 * (last - first));
+  return { from: Math.max(0, first - margin), to: Math.min(total, last + margin) };
+}
+
 /**
  * |ψ|² of the lowest DIAGRAM_STATES states of a band drawn at their energies: E_n ± A·|ψ|²/max|ψ|²,
  * upward for electrons and downward for holes (into the band, where the state lives). A is 25 % of
  * the band's confinement depth (or of the lowest state's confinement energy when there is no
- * barrier), so curves stay inside the well. Labels sit alternately at the right and left ends.
- * Only the part above 0.2 % of the peak is drawn, so each baseline spans where the state lives.
- * Note: the energy scale of the curves is arbitrary; only their position and shape carry meaning.
+ * barrier), so curves stay inside the well. Only the part above 0.2 % of the peak is drawn, so each
+ * baseline spans where the state lives. The energy scale of the curves is arbitrary; only their
+ * position and shape carry meaning. Points outside [from, to] (nm) are left out.
  */
-function stateCurves(r: SolveResult, band: BandName): { curves: Point[]; labels: { z: number; E: number; label: string; series: string; align: string }[] } {
+function stateCurves(r: SolveResult, band: BandName, from: number, to: number): { curves: Point[]; states: { label: string; E: number; series: string }[] } {
   const res = r.bands[band];
   const z = r.wavefunctions.z_nm;
   const sign = band === 'electron' ? 1 : -1;
@@ -55,77 +95,143 @@ function stateCurves(r: SolveResult, band: BandName): { curves: Point[]; labels:
   const first = res.states[0];
   const amplitude = 0.25 * (Number.isFinite(depth) && depth > 0 ? depth : first ? Math.max(first.confinement_meV / 1000, 0.01) : 0.01);
   const curves: Point[] = [];
-  const labels: { z: number; E: number; label: string; series: string; align: string }[] = [];
+  const states: { label: string; E: number; series: string }[] = [];
   res.states.slice(0, DIAGRAM_STATES).forEach((s, k) => {
     const psi = r.wavefunctions.psi[band][k];
     if (!psi || psi.length !== z.length) return;
     let peak = 0;
     for (const v of psi) peak = Math.max(peak, v * v);
     if (!(peak > 0)) return;
-    let first = -1;
-    let last = -1;
     const stride = Math.max(1, Math.ceil(z.length / MAX_CURVE_POINTS));
     for (let i = 0; i < z.length; i += stride) {
       const w = (psi[i]! * psi[i]!) / peak;
-      if (w < 2e-3) continue;
+      if (w < 2e-3 || z[i]! < from || z[i]! > to) continue;
       curves.push({ z: z[i]!, E: s.energy_eV + sign * amplitude * w, series: BAND_NAMES[band], curve: `${band}-${s.label}`, i: curves.length });
-      if (first < 0) first = i;
-      last = i;
     }
-    if (last >= 0) labels.push({ z: z[k % 2 === 0 ? last : first]!, E: s.energy_eV, label: s.label, series: BAND_NAMES[band], align: k % 2 === 0 ? 'left' : 'right' });
+    states.push({ label: s.label, E: s.energy_eV, series: BAND_NAMES[band] });
   });
-  return { curves, labels };
+  return { curves, states };
 }
 
 /**
- * Band diagram: Ec, Ehh and Elh versus z with each bound state's |ψ|² at its energy, interfaces
- * as faint rules and layer labels above. z in nm from the first layer's start; energy in eV.
+ * Label positions (pixels from the top) for labels wanted at `want` (sorted or not), each at least
+ * `gap` from the next and all within [gap/2, height − gap/2]: pushed down past their upper
+ * neighbours, then up from the bottom edge. Returns them in the input order.
+ */
+export function spreadLabels(want: readonly number[], gap: number, height: number): number[] {
+  const order = want.map((y, i) => ({ y, i })).sort((a, b) => a.y - b.y);
+  const y = order.map((o) => Math.min(Math.max(o.y, gap / 2), height - gap / 2));
+  for (let k = 1; k < y.length; k++) y[k] = Math.max(y[k]!, y[k - 1]! + gap);
+  if (y.length > 0) y[y.length - 1] = Math.min(y[y.length - 1]!, height - gap / 2);
+  for (let k = y.length - 2; k >= 0; k--) y[k] = Math.min(y[k]!, y[k + 1]! - gap);
+  const out = new Array<number>(want.length);
+  order.forEach((o, k) => { out[o.i] = y[k]!; });
+  return out;
+}
+
+/** The conduction and valence panels: each band group's extremum to its continuum edge, padded, and every drawn state inside. */
+function panelsOf(r: SolveResult, drawn: Readonly<Record<BandName, { E: number }[]>>): Panel[] {
+  const groups: { bands: BandName[]; title: string }[] = [{ bands: ['electron'], title: 'electron energy (eV)' }, { bands: ['heavy_hole', 'light_hole'], title: 'hole energy (eV)' }];
+  return groups.map(({ bands, title }) => {
+    const sign = bands[0] === 'electron' ? 1 : -1;
+    // Particle sense: the extremum is the lowest point, the continuum edge the highest that confines.
+    const edge = Math.min(...bands.map((b) => sign * r.bands[b].edge_eV));
+    const barrier = Math.max(...bands.map((b) => sign * r.bands[b].barrier_eV));
+    const top = Math.max(barrier, ...bands.flatMap((b) => drawn[b].map((s) => sign * s.E)));
+    const depth = Math.max(top - edge, 0.02);
+    const lo = edge - 0.12 * depth;
+    const hi = top + 0.15 * depth;
+    return sign > 0 ? { bands, title, lo, hi } : { bands, title, lo: -hi, hi: -lo };
+  });
+}
+
+/**
+ * Band diagram in two panels — the conduction band above, heavy and light holes below — each
+ * zoomed to its bands' confining range (extremum to continuum edge, padded) and to the z range of
+ * the confining layers (confiningRange), so a state next to the barrier edge stays visible: band
+ * edges (solid), the continuum edge (dashed), each state's |ψ|² at its energy, state labels in a
+ * column at the right joined to their level by a leader and spread so they never overlap, and
+ * layer labels above where they fit. z in nm from the first layer's start; energies in eV.
  */
 export function bandDiagramSpec(r: SolveResult, options: { readonly width?: number; readonly height?: number } = {}): TopLevelSpec {
-  const edges = BANDS.flatMap((b) => edgePoints(r, b));
-  const states = BANDS.map((b) => stateCurves(r, b));
+  const width = options.width ?? DIAGRAM.width;
+  const height = options.height ?? DIAGRAM.height;
+  const range = confiningRange(r);
+  const span = range.to - range.from;
+  // The label column: 12 % of the plotted span beyond the last layer shown.
+  const labelZ = range.to + 0.04 * span;
+  const domain = [range.from, range.to + 0.12 * span];
+  const pxPerNm = width / (domain[1]! - domain[0]!);
+  const drawnCurves = Object.fromEntries(BANDS.map((b) => [b, stateCurves(r, b, range.from, range.to)])) as Record<BandName, ReturnType<typeof stateCurves>>;
+  const panels = panelsOf(r, { electron: drawnCurves.electron.states, heavy_hole: drawnCurves.heavy_hole.states, light_hole: drawnCurves.light_hole.states });
   const interfaces: { z: number }[] = [];
   const layerLabels: { z: number; label: string }[] = [];
   let z = 0;
   for (const l of r.structure.layers) {
-    if (l.thickness_nm / r.structure.total_nm > 0.06) layerLabels.push({ z: z + l.thickness_nm / 2, label: l.label || l.formula });
+    const a = Math.max(z, range.from);
+    const b = Math.min(z + l.thickness_nm, range.to);
+    const text = l.label || l.formula;
+    // A label is drawn only where it fits inside its layer's visible width (about 6 px per character at 10 px).
+    if (b > a && (b - a) * pxPerNm >= text.length * 6.2 + 6) layerLabels.push({ z: (a + b) / 2, label: text });
     z += l.thickness_nm;
-    if (l.index < r.structure.layers.length - 1) interfaces.push({ z });
+    if (l.index < r.structure.layers.length - 1 && z > range.from && z < range.to) interfaces.push({ z });
   }
-  const x = { field: 'z', type: 'quantitative' as const, title: 'z (nm)', scale: { domain: [0, r.structure.total_nm], nice: false } };
-  const y = { field: 'E', type: 'quantitative' as const, title: 'energy (eV)', scale: { zero: false } };
+  const x = { field: 'z', type: 'quantitative' as const, title: 'z (nm)', scale: { domain, nice: false } };
+  const vconcat = panels.map((panel, p) => {
+    const y = { field: 'E', type: 'quantitative' as const, title: panel.title, scale: { domain: [panel.lo, panel.hi], nice: false, zero: false } };
+    const toPx = (E: number): number => (height * (panel.hi - E)) / (panel.hi - panel.lo);
+    const toE = (px: number): number => panel.hi - (px * (panel.hi - panel.lo)) / height;
+    const states = panel.bands.flatMap((b) => drawnCurves[b].states);
+    const spread = spreadLabels(states.map((s) => toPx(s.E)), DIAGRAM.minGap, height);
+    const labels = states.map((s, k) => ({ z: labelZ, E: toE(spread[k]!), label: s.label, series: s.series }));
+    const leaders = states.flatMap((s, k) => [
+      { z: range.to, E: s.E, curve: s.label, i: 0, series: s.series },
+      { z: labelZ - 0.008 * span, E: toE(spread[k]!), curve: s.label, i: 1, series: s.series },
+    ]);
+    const continuum = panel.bands.flatMap((b) => [range.from, range.to].map((zz, i) => ({ z: zz, E: r.bands[b].barrier_eV, series: BAND_NAMES[b], curve: b, i })));
+    const colour = { field: 'series', type: 'nominal' as const, title: 'band', scale: colourScale };
+    return {
+      width, height,
+      layer: [
+        { data: { values: interfaces }, mark: { type: 'rule', color: '#d8d8d8', strokeWidth: 1 }, encoding: { x } },
+        ...(p === 0 ? [{
+          data: { values: layerLabels },
+          mark: { type: 'text', color: PALETTE.ink, fontSize: 10, baseline: 'top', dy: 4, y: 0 },
+          encoding: { x, text: { field: 'label' } },
+        }] : []),
+        {
+          data: { values: continuum },
+          mark: { type: 'line', strokeDash: [6, 4], strokeWidth: 1, opacity: 0.7 },
+          encoding: { x, y, order: { field: 'i' }, detail: { field: 'curve' }, color: colour },
+        },
+        {
+          data: { values: panel.bands.flatMap((b) => edgePoints(r, b, range.from, range.to)) },
+          mark: { type: 'line', strokeWidth: 2, clip: true },
+          encoding: { x, y, order: { field: 'i' }, detail: { field: 'curve' }, color: colour },
+        },
+        {
+          data: { values: panel.bands.flatMap((b) => drawnCurves[b].curves) },
+          mark: { type: 'line', strokeWidth: 1.2, opacity: 0.85, clip: true },
+          encoding: { x, y, order: { field: 'i' }, detail: { field: 'curve' }, color: colour },
+        },
+        {
+          data: { values: leaders },
+          mark: { type: 'line', strokeWidth: 0.8, strokeDash: [2, 2], opacity: 0.7 },
+          encoding: { x, y, order: { field: 'i' }, detail: { field: 'curve' }, color: colour },
+        },
+        {
+          data: { values: labels },
+          mark: { type: 'text', align: 'left', baseline: 'middle', fontSize: DIAGRAM.label, fontWeight: 'bold' },
+          encoding: { x, y, text: { field: 'label' }, color: colour },
+        },
+      ],
+    };
+  });
   return {
     $schema: 'https://vega.github.io/schema/vega-lite/v6.json',
-    width: options.width ?? 720,
-    height: options.height ?? 420,
-    layer: [
-      { data: { values: interfaces }, mark: { type: 'rule', color: '#d8d8d8', strokeWidth: 1 }, encoding: { x } },
-      {
-        data: { values: layerLabels },
-        mark: { type: 'text', color: PALETTE.ink, fontSize: 10, baseline: 'top', dy: 4, y: 0 },
-        encoding: { x, text: { field: 'label' } },
-      },
-      {
-        data: { values: edges },
-        mark: { type: 'line', strokeWidth: 2 },
-        encoding: { x, y, order: { field: 'i' }, detail: { field: 'curve' }, color: { field: 'series', type: 'nominal', title: 'band', scale: colourScale } },
-      },
-      {
-        data: { values: states.flatMap((s) => s.curves) },
-        mark: { type: 'line', strokeWidth: 1.2, opacity: 0.85 },
-        encoding: { x, y, order: { field: 'i' }, detail: { field: 'curve' }, color: { field: 'series', type: 'nominal', scale: colourScale } },
-      },
-      {
-        data: { values: states.flatMap((s) => s.labels.filter((l) => l.align === 'left')) },
-        mark: { type: 'text', align: 'left', dx: 4, fontSize: 11, fontWeight: 'bold' },
-        encoding: { x, y, text: { field: 'label' }, color: { field: 'series', type: 'nominal', scale: colourScale } },
-      },
-      {
-        data: { values: states.flatMap((s) => s.labels.filter((l) => l.align === 'right')) },
-        mark: { type: 'text', align: 'right', dx: -4, fontSize: 11, fontWeight: 'bold' },
-        encoding: { x, y, text: { field: 'label' }, color: { field: 'series', type: 'nominal', scale: colourScale } },
-      },
-    ],
+    vconcat,
+    spacing: 14,
+    resolve: { scale: { y: 'independent' } },
   } as TopLevelSpec;
 }
 
@@ -181,20 +287,23 @@ export function dosSeries(r: SolveResult, band: BandName, samples = 400): { read
 /**
  * Density of states, one panel per band: the 2-D staircase Σ m∥/(πħ²) Θ(E − E_n) (solid) and the
  * bulk envelope g3(E)·L of the confining layers with the ground state's in-plane mass (dashed),
+ * each panel titled with its band and its L (confiningWidth),
  * versus the energy into the band from its edge (meV); DOS in 10¹³ cm⁻² eV⁻¹.
  */
 export function dosSpec(r: SolveResult, options: { readonly width?: number; readonly height?: number } = {}): TopLevelSpec {
+  // Each panel names the L of its envelope: the confining width differs between bands.
+  const panel = (b: BandName): string => `${BAND_NAMES[b]}: L = ${confiningWidth(r, b).toFixed(1)} nm`;
   const rows = BANDS.flatMap((b) => {
     const s = dosSeries(r, b);
     return [
-      ...s.staircase.map((p) => ({ ...p, band: BAND_NAMES[b], curve: '2-D staircase' })),
-      ...s.envelope.map((p) => ({ ...p, band: BAND_NAMES[b], curve: 'bulk envelope g3·L' })),
+      ...s.staircase.map((p) => ({ ...p, band: BAND_NAMES[b], panel: panel(b), curve: '2-D staircase' })),
+      ...s.envelope.map((p) => ({ ...p, band: BAND_NAMES[b], panel: panel(b), curve: 'bulk envelope g3·L' })),
     ];
   });
   return {
     $schema: 'https://vega.github.io/schema/vega-lite/v6.json',
     data: { values: rows },
-    facet: { column: { field: 'band', type: 'nominal', title: null, sort: SERIES } },
+    facet: { column: { field: 'panel', type: 'nominal', title: null, sort: BANDS.map(panel) } },
     spec: {
       width: options.width ?? 210,
       height: options.height ?? 200,

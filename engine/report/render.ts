@@ -6,7 +6,8 @@ import { PALETTE } from './palette.js';
 /** Axis, legend and title styling shared by every plot of a report. */
 export const PLOT_CONFIG = {
   font: 'DejaVu Sans, Helvetica, Arial, sans-serif',
-  axis: { labelColor: PALETTE.ink, titleColor: PALETTE.ink, domainColor: PALETTE.ink, tickColor: PALETTE.ink, gridColor: '#e4e4e4', labelFontSize: 11, titleFontSize: 12 },
+  // Tick labels that would touch are dropped (greedy, with a gap): the renderer only estimates text widths.
+  axis: { labelColor: PALETTE.ink, titleColor: PALETTE.ink, domainColor: PALETTE.ink, tickColor: PALETTE.ink, gridColor: '#e4e4e4', labelFontSize: 11, titleFontSize: 12, labelOverlap: 'greedy', labelSeparation: 6 },
   legend: { labelColor: PALETTE.ink, titleColor: PALETTE.ink, labelFontSize: 11, titleFontSize: 12, orient: 'bottom' },
   title: { color: PALETTE.ink, fontSize: 13, anchor: 'start' },
   view: { stroke: '#cfcfcf' },

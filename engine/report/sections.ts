@@ -4,20 +4,25 @@
  * and the shared sections below stay as they are.
  */
 import { BANDS, type SolveResult } from '../solve.js';
-import { fixed, sig } from '../cli/format.js';
+import { fixed, inUnit, sig, withUnit } from '../cli/format.js';
 import { describeOffsetRule } from '../lineup.js';
+import { opticsSection } from './optics.js';
 import { describeModels } from '../structure.js';
 import { INTERFACE_HEADER, interfaceRow } from '../cli/solve.js';
 import type { Scored } from '../../objectives/index.js';
 import type { Evaluation } from '../../objectives/types.js';
 import { figureHtml, htmlTable, type Section } from './html.js';
-import { bandDiagramSpec, dosSpec, DIAGRAM_STATES, valenceDispersionSpec } from './plots.js';
+import { bandDiagramSpec, confiningRange, dosSpec, DIAGRAM_STATES, valenceDispersionSpec } from './plots.js';
+import { BAND_NAMES } from './palette.js';
+import { stateRegions, stateWells } from '../../objectives/wells.js';
 import { renderSvg } from './render.js';
 import type { GrowthSheet } from './growth.js';
 import type { ReportInput } from './input.js';
 import { toleranceSection } from './tolerance.js';
 import { wireSections } from './wire.js';
 import { campaignSections } from './campaign.js';
+import { dopingSections } from './doping.js';
+import type { DopedSpecResult } from '../poisson/doped.js';
 
 /** The band diagram with states as standalone SVG (also what `solve --plot` writes). */
 export const bandDiagramSvg = (r: SolveResult): Promise<string> => renderSvg(bandDiagramSpec(r));
@@ -37,10 +42,11 @@ export function structureSection(r: SolveResult, id = 'structure'): Section {
 }
 
 export async function bandSection(r: SolveResult, id = 'bands'): Promise<Section> {
+  const range = confiningRange(r);
   return {
     id, title: 'Band diagram and states',
-    lead: 'Band edges versus growth direction z, with |ψ|² of every bound state drawn at its energy (scaled to fit the well; upward for electrons, downward for holes).',
-    html: figureHtml(await bandDiagramSvg(r), `Ec, Ehh and Elh (eV, absolute scale of the parameter set) versus z (nm), with the lowest ${DIAGRAM_STATES} states of each band; the table lists all.`),
+    lead: `Conduction band (top) and valence bands (bottom) versus growth direction z, each zoomed to its confining range; |ψ|² of the lowest ${DIAGRAM_STATES} states of each band drawn at its energy (scaled to fit the well; upward for electrons, downward for holes); dashed, each band's continuum edge.`,
+    html: figureHtml(await bandDiagramSvg(r), `Ec (top), Ehh and Elh (bottom) in eV on the absolute scale of the parameter set versus z from ${fixed(range.from, 1)} to ${fixed(range.to, 1)} nm of ${fixed(r.structure.total_nm, 1)} nm (the confining layers and a margin); labels at the right name each drawn level; the tables list every state.`),
   };
 }
 
@@ -56,11 +62,30 @@ export async function valenceSection(r: SolveResult, id = 'valence'): Promise<Se
   };
 }
 
+/** Every state's region (objectives/wells.ts stateRegions) as a lookup; empty when unknown. */
+function regionsOf(r: SolveResult): Map<string, string> {
+  const regions = stateRegions(r);
+  return new Map(regions ? BANDS.flatMap((b) => regions[b].map((x) => [x.state, x.region] as const)) : []);
+}
+
 export function statesSection(r: SolveResult, id = 'states'): Section {
-  const rows = BANDS.flatMap((b) => r.bands[b].states.map((s) => [b.replace('_', ' '), s.label, fixed(s.energy_eV, 5), fixed(s.confinement_meV, 2), s.bound ? 'yes' : 'quasi', s.bound ? '–' : sig(s.width_meV, 3), fixed(s.mass_inplane, 4)]));
+  const region = regionsOf(r);
+  const wells = stateWells(r);
+  const home = new Map(wells ? BANDS.flatMap((b) => wells[b].map((w) => [w.state, w.well] as const)) : []);
+  const header = ['band', 'state', ...(wells ? ['well'] : []), 'energy (eV)', 'confinement (meV)', 'bound', 'Γ (meV)', 'm∥ (m0)'];
+  const rowsOf = (guide: boolean): string[][] => BANDS.flatMap((b) => r.bands[b].states.filter((s) => (region.get(s.label) === 'guide') === guide).map((s) => [BAND_NAMES[b], s.label, ...(wells ? [home.get(s.label) ?? '–'] : []),
+    inUnit(s.energy_eV, 'eV'), inUnit(s.confinement_meV, 'meV'), s.bound ? 'yes' : 'quasi', s.bound ? '–' : inUnit(s.width_meV, 'meV'), inUnit(s.mass_inplane, 'm0')]));
+  const numeric = wells ? [3, 4, 6, 7] : [2, 3, 5, 6];
+  const guide = rowsOf(true);
   const quasi = BANDS.some((b) => r.bands[b].states.some((s) => !s.bound));
-  const lead = [r.status === 'ok' ? '' : `status ${r.status}: ${r.message}.`, quasi ? 'Quasi-bound states are resonances of the well under the field; Γ is their width (FWHM), ħ/Γ their lifetime.' : ''].join(' ').trim();
-  return { id, title: 'Bound states', lead: lead || undefined, html: htmlTable(['band', 'state', 'energy (eV)', 'confinement (meV)', 'bound', 'Γ (meV)', 'm∥ (m0)'], rows, [2, 3, 5, 6]) };
+  const lead = [r.status === 'ok' ? '' : `status ${r.status}: ${r.message}.`, quasi ? 'Quasi-bound states are resonances of the well under the field; Γ is their width (FWHM), ħ/Γ their lifetime.' : '',
+    guide.length ? 'States of the wells first; below them the states of the guiding and cladding layers (above the wells\' barriers, spread over the layers around the wells: a waveguide\'s states).' : ''].join(' ').trim();
+  return {
+    id, title: 'Bound states', lead: lead || undefined,
+    html: guide.length
+      ? `<h3>States of the wells</h3>\n${htmlTable(header, rowsOf(false), numeric)}\n<h3>States of the guiding and cladding layers</h3>\n${htmlTable(header, guide, numeric)}`
+      : htmlTable(header, rowsOf(false), numeric),
+  };
 }
 
 /** Interband pairs with a smaller envelope overlap² are (nearly) forbidden and left out of the table. */
@@ -70,17 +95,21 @@ export const MIN_OSCILLATOR_STRENGTH = 0.01;
 
 export function transitionsSection(r: SolveResult, id = 'transitions'): Section {
   const strong = (x: number | undefined, min: number): boolean => x === undefined || !Number.isFinite(x) || Math.abs(x) >= min;
+  const region = regionsOf(r);
+  const ofWells = (label: string): boolean => label.split('-').every((l) => region.get(l) !== 'guide');
   const inter = r.transitions.filter((t) => t.kind === 'interband' && strong(t.overlap2, MIN_OVERLAP2));
   const isb = r.transitions.filter((t) => t.kind === 'intersubband' && strong(t.oscillator_strength, MIN_OSCILLATOR_STRENGTH));
   const omitted = r.transitions.length - inter.length - isb.length;
+  const interTable = (lines: typeof inter): string => htmlTable(['transition', 'energy (eV)', 'wavelength (nm)', 'overlap²', 'exciton binding (meV)'],
+    lines.map((t) => [t.label, inUnit(t.energy_eV, 'eV'), inUnit(t.wavelength_nm, 'nm'), inUnit(t.overlap2, ''), inUnit((t.exciton_binding_eV ?? NaN) * 1000, 'meV')]), [1, 2, 3, 4]);
   const parts: string[] = [];
-  if (inter.length > 0) {
-    parts.push('<h3>Interband</h3>', htmlTable(['transition', 'energy (eV)', 'wavelength (nm)', 'overlap²', 'exciton binding (meV)'],
-      inter.map((t) => [t.label, fixed(t.energy_eV, 5), fixed(t.wavelength_nm, 2), fixed(t.overlap2, 4), fixed((t.exciton_binding_eV ?? NaN) * 1000, 2)]), [1, 2, 3, 4]));
-  }
+  const wellLines = inter.filter((t) => ofWells(t.label));
+  const guideLines = inter.filter((t) => !ofWells(t.label));
+  if (wellLines.length > 0) parts.push(`<h3>Interband${guideLines.length ? ', between well states' : ''}</h3>`, interTable(wellLines));
+  if (guideLines.length > 0) parts.push('<h3>Interband, involving guiding or cladding-layer states</h3>', interTable(guideLines));
   if (isb.length > 0) {
     parts.push('<h3>Intersubband</h3>', htmlTable(['transition', 'energy (meV)', 'wavelength (µm)', 'wavenumber (cm⁻¹)', 'dipole (nm)', 'oscillator strength'],
-      isb.map((t) => [t.label, fixed(t.energy_eV * 1000, 2), fixed(t.wavelength_nm / 1000, 3), fixed(t.wavenumber_per_cm, 1), fixed(t.dipole_nm, 4), fixed(t.oscillator_strength, 4)]), [1, 2, 3, 4, 5]));
+      isb.map((t) => [t.label, inUnit(t.energy_eV * 1000, 'meV'), inUnit(t.wavelength_nm / 1000, 'µm'), inUnit(t.wavenumber_per_cm, 'cm⁻¹'), fixed(t.dipole_nm, 4), inUnit(t.oscillator_strength, '')]), [1, 2, 3, 4, 5]));
   }
   return {
     id, title: 'Transitions',
@@ -92,13 +121,13 @@ export async function dosSection(r: SolveResult, id = 'dos'): Promise<Section> {
   const rows = BANDS.flatMap((b) => r.dos.bands[b].map((d) => [d.label, fixed(d.edge_eV, 5), fixed(d.mass_inplane, 4), sig(d.step_per_cm2_per_eV, 4)]));
   return {
     id, title: 'Density of states',
-    lead: 'Two-dimensional staircase Σ m∥/(πħ²) Θ(E − Eₙ) per band (spin included) and the bulk envelope g3(E)·L of the confining layers (width L) with the density-of-states mass (m∥² m_z)^(1/3).',
+    lead: 'Two-dimensional staircase Σ m∥/(πħ²) Θ(E − Eₙ) per band (spin included) and the bulk envelope g3(E)·L of the confining layers (total width L, given in each panel\'s title) with the density-of-states mass (m∥² m_z)^(1/3).',
     html: `${figureHtml(await renderSvg(dosSpec(r)), 'DOS (10¹³ cm⁻² eV⁻¹) versus energy into each band from its edge (meV).')}\n${htmlTable(['subband', 'edge (eV)', 'm∥ (m0)', 'step (cm⁻² eV⁻¹)'], rows, [1, 2, 3])}`,
   };
 }
 
 const evaluationRow = (e: Evaluation): string[] =>
-  [e.label, e.achieved === null ? 'missing' : `${sig(e.achieved, 6)} ${e.unit}`.trim(), e.goal === null ? '–' : `${sig(e.goal, 6)} ${e.unit}`.trim(), e.residual.toFixed(3), e.satisfied ? 'yes' : 'no'];
+  [e.label, e.achieved === null ? 'missing' : withUnit(e.achieved, e.unit), withUnit(e.goal, e.unit), e.residual.toFixed(3), e.satisfied ? 'yes' : 'no'];
 
 export function targetsSection(scored: Scored, id = 'targets'): Section {
   return {
@@ -120,7 +149,7 @@ export function growthSection(g: GrowthSheet, id = 'growth'): Section {
 
 async function solveSections(r: SolveResult): Promise<Section[]> {
   const valence = await valenceSection(r);
-  return [structureSection(r), await bandSection(r), ...(valence ? [valence] : []), statesSection(r), transitionsSection(r), await dosSection(r)];
+  return [structureSection(r), await bandSection(r), ...(valence ? [valence] : []), statesSection(r), transitionsSection(r), await dosSection(r), ...(r.optics ? [await opticsSection(r.optics)] : [])];
 }
 
 type Builder<K extends ReportInput['kind']> = (input: Extract<ReportInput, { kind: K }>) => Promise<readonly Section[]>;
@@ -130,6 +159,7 @@ export const SECTION_BUILDERS: { readonly [K in ReportInput['kind']]: Builder<K>
   solve: async (input) => [
     ...(input.scored ? [targetsSection(input.scored)] : []),
     ...(await solveSections(input.result)),
+    ...('selfConsistent' in input.result ? await dopingSections(input.result as DopedSpecResult) : []),
     ...(input.tolerance ? [await toleranceSection(input.tolerance)] : []),
     ...(input.growth ? [growthSection(input.growth)] : []),
   ],
@@ -141,7 +171,7 @@ export const SECTION_BUILDERS: { readonly [K in ReportInput['kind']]: Builder<K>
     const header = ['rank', ...first.variables.map((v) => (v.kind === 'fraction' ? v.name : `${v.name} (nm / ML)`)), ...first.targets.map((e) => e.label), 'loss', 'all met', 'h_c margin'];
     const rows = input.designs.map((d) => [String(d.rank),
       ...d.variables.map((v) => `${v.kind === 'fraction' ? v.value.toFixed(3) : `${fixed(v.nm, 3)} / ${fixed(v.ml, 1)}`}${v.atBound ? ` (${v.atBound} bound)` : ''}`),
-      ...d.targets.map((e) => (e.achieved === null ? 'missing' : `${sig(e.achieved, 6)} ${e.unit} (r = ${e.residual >= 0 ? '+' : ''}${e.residual.toFixed(2)})`)),
+      ...d.targets.map((e) => (e.achieved === null ? 'missing' : `${withUnit(e.achieved, e.unit)} (r = ${e.residual >= 0 ? '+' : ''}${e.residual.toFixed(2)})`)),
       sig(d.loss, 3), d.satisfied ? 'yes' : 'no', `${fixed(d.critical_thickness_margin * 100, 0)} %`]);
     const ranking: Section = {
       id: 'ranking', title: 'Ranked designs',

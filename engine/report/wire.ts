@@ -6,7 +6,7 @@
  */
 import type { TopLevelSpec } from 'vega-lite';
 import { InputError } from '../errors.js';
-import { fixed, sig } from '../cli/format.js';
+import { fixed, inUnit, sig } from '../cli/format.js';
 import type { BandName } from '../profile.js';
 import { BANDS } from '../solve.js';
 import type { WireSolveResult } from '../wire/solve.js';
@@ -83,16 +83,42 @@ export function materialsMapSpec(r: WireSolveResult): TopLevelSpec {
   } as TopLevelSpec;
 }
 
-/** |ψ|² maps (normalised to each state's peak) of the lowest MAPPED_STATES states of each band, one panel per state. */
+/**
+ * The boundaries between materials on the map grid, as segments (nm): a vertical segment midway
+ * between horizontally adjacent nodes of different materials, a horizontal one between vertically
+ * adjacent ones. Drawn over each |ψ|² map, they outline the cross-section's shape.
+ */
+export function materialOutline(r: WireSolveResult): { x: number; y: number; x2: number; y2: number }[] {
+  const g = r.maps.grid;
+  const out: { x: number; y: number; x2: number; y2: number }[] = [];
+  for (let j = 0; j < g.ny; j++) {
+    for (let i = 0; i < g.nx; i++) {
+      const m = g.material[j * g.nx + i];
+      const x = g.x0_nm + i * g.dx_nm;
+      const y = g.y0_nm + j * g.dy_nm;
+      if (i + 1 < g.nx && g.material[j * g.nx + i + 1] !== m) out.push({ x: x + g.dx_nm / 2, y: y - g.dy_nm / 2, x2: x + g.dx_nm / 2, y2: y + g.dy_nm / 2 });
+      if (j + 1 < g.ny && g.material[(j + 1) * g.nx + i] !== m) out.push({ x: x - g.dx_nm / 2, y: y + g.dy_nm / 2, x2: x + g.dx_nm / 2, y2: y + g.dy_nm / 2 });
+    }
+  }
+  return out;
+}
+
+/**
+ * |ψ|² maps (normalised to each state's peak) of the lowest MAPPED_STATES states of each band, one
+ * panel per state, each with the cross-section's material boundaries drawn over it.
+ */
 export function stateMapsSpec(r: WireSolveResult): TopLevelSpec {
   const a = axes(r);
   const grid = cells(r);
+  const outline = materialOutline(r);
   const rows = BANDS.flatMap((b) => r.bands[b].states.slice(0, MAPPED_STATES).flatMap((s, k) => {
     const psi2 = r.maps.psi2[b][k];
     if (!psi2) return [];
     let peak = 0;
     for (let n = 0; n < psi2.length; n++) peak = Math.max(peak, psi2[n]!);
-    return peak > 0 ? grid.map(({ cell, node }) => ({ ...cell, p: psi2[node]! / peak, state: `${s.label} (${fixed(s.energy_eV, 4)} eV)` })) : [];
+    const state = `${s.label} (${fixed(s.energy_eV, 4)} eV)`;
+    // A facet's layers share its data: the outline rides along with every state's map.
+    return peak > 0 ? [...grid.map(({ cell, node }) => ({ ...cell, p: psi2[node]! / peak, state, kind: 'map' })), ...outline.map((o) => ({ ...o, state, kind: 'outline' }))] : [];
   }));
   return {
     $schema: 'https://vega.github.io/schema/vega-lite/v6.json',
@@ -101,8 +127,18 @@ export function stateMapsSpec(r: WireSolveResult): TopLevelSpec {
     columns: 3,
     spec: {
       ...a.size(230),
-      mark: { type: 'rect' },
-      encoding: { x: a.x, x2: a.x2, y: a.y, y2: a.y2, color: { field: 'p', type: 'quantitative', title: '|ψ|² / max', scale: { domain: [0, 1], range: ['#ffffff', PALETTE.indigo], interpolate: 'rgb' } } },
+      layer: [
+        {
+          transform: [{ filter: "datum.kind === 'map'" }],
+          mark: { type: 'rect' },
+          encoding: { x: a.x, x2: a.x2, y: a.y, y2: a.y2, color: { field: 'p', type: 'quantitative', title: '|ψ|² / max', scale: { domain: [0, 1], range: ['#ffffff', PALETTE.indigo], interpolate: 'rgb' } } },
+        },
+        {
+          transform: [{ filter: "datum.kind === 'outline'" }],
+          mark: { type: 'rule', color: PALETTE.amber, strokeWidth: 1.2 },
+          encoding: { x: a.x, x2: a.x2, y: a.y, y2: a.y2 },
+        },
+      ],
     },
   } as TopLevelSpec;
 }
@@ -136,6 +172,33 @@ export function wireDosSpec(r: WireSolveResult): TopLevelSpec {
   } as TopLevelSpec;
 }
 
+/**
+ * What the wire solve records for an intersubband line besides its energy: the dipole matrix
+ * elements ⟨i|x|j⟩ and ⟨i|z|j⟩ over the cross-section (nm) and the oscillator strength for light
+ * polarised across the wire, f = (2 m ΔE/ħ²)(x_ij² + z_ij²) with the sum-rule mass (as
+ * engine/observables/matrix-elements.ts for wells). Absent from a solve that does not compute them.
+ */
+interface WireIntersubband {
+  readonly dipole_x_nm?: number;
+  readonly dipole_z_nm?: number;
+  readonly oscillator_strength?: number;
+}
+
+/** Interband lines (overlap² ≥ MIN_OVERLAP2) and intersubband lines (dipoles, oscillator strength), as two tables. */
+function transitionTables(r: WireSolveResult): string {
+  const inter = r.transitions.filter((t) => t.kind === 'interband' && t.overlap2 >= MIN_OVERLAP2);
+  const isb = r.transitions.filter((t) => t.kind === 'intersubband').map((t) => ({ ...t, ...(t as WireIntersubband) }));
+  const parts = [];
+  if (inter.length) parts.push('<h3>Interband</h3>', htmlTable(['transition', 'energy (eV)', 'wavelength (nm)', 'overlap²'], inter.map((t) => [t.label, inUnit(t.energy_eV, 'eV'), inUnit(t.wavelength_nm, 'nm'), inUnit(t.overlap2, '')]), [1, 2, 3]));
+  if (isb.length) {
+    const dipoles = isb.some((t) => t.oscillator_strength !== undefined);
+    parts.push('<h3>Intersubband</h3>', htmlTable(['transition', 'energy (meV)', 'wavelength (µm)', ...(dipoles ? ['dipole x (nm)', 'dipole z (nm)', 'oscillator strength'] : [])],
+      isb.map((t) => [t.label, inUnit(t.energy_eV * 1000, 'meV'), inUnit(t.wavelength_nm / 1000, 'µm'), ...(dipoles ? [fixed(t.dipole_x_nm, 4), fixed(t.dipole_z_nm, 4), inUnit(t.oscillator_strength, '')] : [])]), dipoles ? [1, 2, 3, 4, 5] : [1, 2]));
+    if (!dipoles) parts.push('<p class="lead">This wire solve records no intersubband dipole matrix elements, so no oscillator strength is shown (an envelope overlap would say nothing: it is zero between orthogonal states).</p>');
+  }
+  return parts.length ? parts.join('\n') : '<p>No transition: a band has no bound state.</p>';
+}
+
 /** The sections of a wire report. */
 export async function wireSections(r: WireSolveResult): Promise<Section[]> {
   const s = r.structure;
@@ -165,8 +228,8 @@ export async function wireSections(r: WireSolveResult): Promise<Section[]> {
     },
     {
       id: 'transitions', title: 'Transitions',
-      lead: `Interband transitions with envelope overlap² ≥ ${MIN_OVERLAP2} and every intersubband one${r.transitions.some((t) => t.kind === 'interband' && !(t.overlap2 >= MIN_OVERLAP2)) ? ' (weaker pairs left out; "wellsmith solve --json" lists all)' : ''}.`,
-      html: htmlTable(['transition', 'kind', 'energy (eV)', 'wavelength (nm)', 'overlap²'], r.transitions.filter((t) => t.kind !== 'interband' || t.overlap2 >= MIN_OVERLAP2).map((t) => [t.label, t.kind, fixed(t.energy_eV, 5), fixed(t.wavelength_nm, 2), fixed(t.overlap2, 4)]), [2, 3, 4]),
+      lead: `Interband transitions with envelope overlap² ≥ ${MIN_OVERLAP2}${r.transitions.some((t) => t.kind === 'interband' && !(t.overlap2 >= MIN_OVERLAP2)) ? ' (weaker pairs left out; "wellsmith solve --json" lists all)' : ''}; intersubband transitions with their energies, and where the solve records them their dipole matrix elements across the wire (x, z) and oscillator strength.`,
+      html: transitionTables(r),
     },
     {
       id: 'dos', title: 'Density of states',

@@ -5,9 +5,10 @@
  */
 import { readFileSync, statSync } from 'node:fs';
 import { LineCounter, parseDocument, isMap, isPair, isScalar, type Document } from 'yaml';
-import type { z } from 'zod';
 import { InputError } from '../errors.js';
 import { specSchema, type Spec } from './schema.js';
+import { describeIssues, fieldPath } from './issues.js';
+import { checkSpec, specWarnings } from './check.js';
 
 export interface LoadedSpec {
   readonly spec: Spec;
@@ -15,21 +16,11 @@ export interface LoadedSpec {
   readonly origin: string;
   /** 1-based line of a field path such as "stack[2].thickness", when the source has lines. */
   readonly locate: (field: string) => number | undefined;
+  /** Notes on what the spec may not mean as written (engine/spec/check.ts specWarnings), each with its field and line. */
+  readonly warnings: readonly string[];
 }
 
-/** "stack[2].thickness" -> ["stack", 2, "thickness"]. */
-export function fieldPath(field: string): (string | number)[] {
-  const out: (string | number)[] = [];
-  for (const m of field.matchAll(/([^.[\]]+)|\[(\d+)\]/g)) out.push(m[2] !== undefined ? Number(m[2]) : (m[1] as string));
-  return out;
-}
-
-/** ["stack", 2, "thickness"] -> "stack[2].thickness". */
-export function fieldName(path: readonly PropertyKey[]): string {
-  let s = '';
-  for (const p of path) s += typeof p === 'number' ? `[${p}]` : s === '' ? String(p) : `.${String(p)}`;
-  return s === '' ? '(top level)' : s;
-}
+export { fieldName, fieldPath, describeIssue } from './issues.js';
 
 function locator(doc: Document, lines: LineCounter): (field: string) => number | undefined {
   return (field) => {
@@ -54,41 +45,25 @@ function locator(doc: Document, lines: LineCounter): (field: string) => number |
   };
 }
 
-/** A zod issue as "field: what was wrong, got …" (shared by every file format wellsmith reads). */
-export function describeIssue(issue: z.core.$ZodIssue): string {
-  const field = fieldName(issue.path);
-  switch (issue.code) {
-    case 'unrecognized_keys':
-      return `${fieldName([...issue.path, issue.keys[0] as string])}: unknown key "${issue.keys[0]}"; check its spelling against the spec schema (schema/spec.schema.json)`;
-    case 'invalid_type':
-      return issue.input === undefined
-        ? `${field}: is required (expected ${issue.expected})`
-        : `${field}: expected ${issue.expected}, got ${JSON.stringify(issue.input)}`;
-    case 'invalid_union':
-      if (issue.input === undefined) return `${field}: is required`;
-      {
-        // A discriminated union (e.g. wire.shape.kind) names its allowed kinds.
-        const d = issue as { discriminator?: string; options?: readonly unknown[] };
-        if (d.discriminator !== undefined && Array.isArray(d.options)) {
-          const got = (issue.input as Record<string, unknown> | null)?.[d.discriminator];
-          return `${field}: unknown kind ${JSON.stringify(got)}; use one of ${d.options.map((o) => JSON.stringify(o)).join(', ')}`;
-        }
-      }
-      return `${field}: got ${JSON.stringify(issue.input)}, which is not a number, a quantity with a unit, a variable name or {from, to}`;
-    default:
-      return `${field}: ${issue.message}${issue.input !== undefined ? `, got ${JSON.stringify(issue.input)}` : ''}`;
-  }
-}
-
-/** Validates an already-parsed value (e.g. from a library caller). */
+/**
+ * Validates an already-parsed value (e.g. from a library caller): the schema (up to
+ * LISTED_PROBLEMS problems named in one message), then what the schema cannot see — targets that
+ * can never be evaluated, variables no layer uses (engine/spec/check.ts).
+ */
 export function validateSpec(value: unknown, locate: (field: string) => number | undefined = () => undefined): Spec {
   const r = specSchema.safeParse(value, { reportInput: true });
-  if (r.success) return r.data;
-  const first = r.error.issues[0] as z.core.$ZodIssue;
-  const field = fieldName(first.path);
-  const line = locate(first.code === 'unrecognized_keys' ? fieldName([...first.path, first.keys[0] as string]) : field);
-  const more = r.error.issues.length > 1 ? ` (and ${r.error.issues.length - 1} more problem${r.error.issues.length > 2 ? 's' : ''})` : '';
-  throw new InputError('schema', `${describeIssue(first)}${line ? ` (line ${line})` : ''}${more}`, field);
+  if (!r.success) {
+    const { text, field } = describeIssues(r.error.issues, { schema: specSchema, locate });
+    throw new InputError('schema', text, field);
+  }
+  try {
+    checkSpec(r.data);
+  } catch (e) {
+    const line = e instanceof InputError && e.field ? locate(e.field) : undefined;
+    if (line && !/\(line \d+\)/.test((e as Error).message)) throw new InputError((e as InputError).code, `${(e as Error).message} (line ${line})`, (e as InputError).field);
+    throw e;
+  }
+  return r.data;
 }
 
 /** YAML (or JSON) text -> plain value and a field-path -> line lookup, for any file wellsmith reads. */
@@ -125,7 +100,8 @@ export function parseSpecText(text: string, origin = '<inline>'): LoadedSpec {
   if (isCampaignFile(value as Record<string, unknown>)) {
     throw new InputError('schema', `${origin}: this is a campaign file (it has "sweep:" and "spec:"), not a spec; run it with "wellsmith campaign ${origin}"`);
   }
-  return { spec: validateSpec(value, locate), origin, locate };
+  const spec = validateSpec(value, locate);
+  return { spec, origin, locate, warnings: specWarnings(spec, locate) };
 }
 
 /** Largest spec file read (bytes): hand-written specs are a few kB; 4 MiB holds ~50 000 layers. */

@@ -5,7 +5,9 @@
  * so an error can still point at the field the user wrote.
  */
 import { z } from 'zod';
+import { opticsSchema } from '../optics/schema.js';
 import { wireSchema } from '../wire/schema.js';
+import { absorptionSchema, biasSchema, dopingSectionSchema, layerDopingSchema } from '../poisson/schema.js';
 
 const quantity = z.union([z.number(), z.string()]);
 const name = z.string().regex(/^[A-Za-z_][A-Za-z0-9_]*$/, 'must be a name of letters, digits and _ that starts with a letter');
@@ -21,6 +23,7 @@ const layerKeys = {
   material: z.string().min(1).describe('Formula (Al0.3Ga0.7As), named alloy (InGaAs with a fraction key such as In: 0.2), a quaternary lattice-matched to InP by its 300 K gap wavelength (Q1.25 or InGaAsP(1.25 µm); AlGaInAs(1.3 µm)) or a custom material name'),
   thickness: quantity.describe('Length with unit (nm, Å, ML) or the name of a vary variable'),
   label: z.string().optional().describe('A name for the layer used in tables (well, barrier…); inside a repeat the period is added, e.g. well[3]'),
+  doping: layerDopingSchema.optional(),
   strain: quantity.optional().describe('In-plane mismatch strain on the substrate ("-1 %", negative compressive) or a vary variable in %: the free fraction of a ternary name (InGaAs, GaAsP…) is solved to give it'),
 };
 
@@ -158,6 +161,10 @@ export const specSchema = z
     wire: wireSchema.optional(),
     solver: solverSchema.optional(),
     carriers: carriersSchema.optional(),
+    optics: opticsSchema.optional(),
+    doping: dopingSectionSchema.optional(),
+    bias: biasSchema.optional(),
+    absorption: absorptionSchema.optional(),
     growth: growthSchema.optional(),
     targets: z.array(z.record(z.string(), z.unknown())).optional(),
     prefer: z.array(preferenceSchema).optional().describe('Secondary objectives, in order of importance, applied once every target is met (lexicographic; values within "within" tie and pass to the next)'),
@@ -175,6 +182,10 @@ export const specSchema = z
       const stackOnly: readonly [readonly (string | number)[], string][] = [
         [['field'], 'a wire is solved without an applied field; remove "field:" (fields are modelled for layer stacks)'],
         [['carriers'], 'injected carriers are computed for layer stacks only; remove "carriers:"'],
+        [['optics'], 'optical spectra are computed for layer stacks only; remove "optics:"'],
+        [['doping'], 'doped structures are solved self-consistently as layer stacks only; remove "doping:"'],
+        [['bias'], 'a bias is applied across a layer stack; remove "bias:"'],
+        [['absorption'], 'intersubband absorption is computed for doped layer stacks; remove "absorption:"'],
         [['solver', 'slice'], 'slices apply to graded layers and fields of layer stacks; a wire\'s grid is "wire.grid"'],
         [['solver', 'max_states'], 'a wire\'s number of subbands is "wire.states"; remove solver.max_states'],
       ];

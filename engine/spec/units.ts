@@ -27,6 +27,22 @@ export function splitQuantity(input: string | number): { readonly value: number;
   return q;
 }
 
+/** Whether a quantity is written without a unit: a number, or text holding only a number. */
+export const isUnitless = (input: string | number | undefined): boolean => input !== undefined && splitQuantity(input)?.unit === '';
+
+/**
+ * The note for a quantity written without a unit, which is read in the key's default unit
+ * (`unit`); null when it has a unit. wellsmith's rule: a bare number is read in the key's one
+ * default unit (lengths nm, energies eV, temperatures K, fields kV/cm, wavelengths nm, wavenumbers
+ * cm⁻¹, sheet densities cm⁻²) and a warning says so; keys whose unit is ambiguous (a strain in % or
+ * as a fraction, a spread in nm or meV) refuse it.
+ */
+export function unitlessNote(input: string | number | undefined, unit: string): string | null {
+  if (!isUnitless(input)) return null;
+  const v = splitQuantity(input!)!.value;
+  return `${JSON.stringify(input)} has no unit and is read as ${v} ${unit}; write "${v} ${unit}" (or another unit) to say so`;
+}
+
 const LENGTH_UNITS: Readonly<Record<string, number>> = { nm: 1, 'Å': 0.1, A: 0.1, angstrom: 0.1, um: 1000, 'µm': 1000, 'μm': 1000 };
 
 /** A thickness or width: nm (also a bare number), Å or ML. Returns a message on failure. */

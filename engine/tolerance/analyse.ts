@@ -6,7 +6,7 @@
  */
 import { runTasks, type PoolOptions } from '../pool.js';
 import type { Spec } from '../spec/schema.js';
-import type { Perturbation } from '../structure.js';
+import { buildStructure, hasCompositionError, type Perturbation } from '../structure.js';
 import { islandLines, type WellIslands } from './islands.js';
 import { measure, prepareTolerance, type Measurement, type Quantity } from './measure.js';
 import { batchTasks, distribution, drawKeys, samplePerturbation, DEFAULT_GROWTH, type BatchOutcome, type Distribution, type GrowthModel } from './montecarlo.js';
@@ -29,6 +29,9 @@ export const DEFAULT_TOLERANCE: Omit<ToleranceOptions, 'workers'> = {
   samples: 1000, seed: 1, growth: DEFAULT_GROWTH, sensitivity: DEFAULT_SENSITIVITY, batch: 125, islands: true,
 };
 
+/** Most Monte Carlo samples a command runs: at a few ms per sample on a 2-core machine, already hours of work. */
+export const MAX_SAMPLES = 10_000_000;
+
 export type ToleranceStatus = 'ok' | 'no-finite-value';
 
 export const TOLERANCE_MESSAGES: Readonly<Record<ToleranceStatus, string>> = {
@@ -41,16 +44,24 @@ export interface WorstSample {
   readonly loss: number;
   readonly values: readonly number[];
   readonly perturbation: Perturbation;
+  /** Its growth errors per layer as grown: label, whole-ML error, and the alloy-fraction error where the layer has a mixed fraction (else null). */
+  readonly layers: readonly { readonly label: string; readonly ml: number; readonly dx: number | null }[];
 }
 
 export interface MonteCarlo {
   readonly samples: number;
   readonly seed: number;
   readonly model: GrowthModel;
-  /** Fraction of samples with every target inside its window (Evaluation.satisfied), in [0, 1]. */
+  /**
+   * Fraction of samples, in [0, 1], with every target inside its window (Evaluation.satisfied) and
+   * every target, constraint and figure quantity present: a sample that loses a state a target reads
+   * (e2 no longer bound) is a failure, never dropped.
+   */
   readonly yield: number;
-  /** Samples whose solve failed or whose loss was not finite (counted as out of the windows). */
+  /** Samples whose solve failed or whose loss was not finite (counted as failures). */
   readonly failures: number;
+  /** Per quantity: samples that solved but where it does not exist (a state not bound); those of target quantities count as failures. */
+  readonly missing: readonly number[];
   /** Per quantity, in problem order. */
   readonly distributions: readonly Distribution[];
   /** The sample with the largest loss (first such index on ties); failed samples count as infinite loss. */
@@ -105,20 +116,31 @@ export interface ToleranceResult {
   readonly islands: readonly WellIslands[];
 }
 
-/** Summarises sample measurements (ordered by sample index) of the spec's quantities. */
-export function summarise(samples: readonly Measurement[], quantities: readonly Quantity[], seed: number, spec: Spec, model: GrowthModel): MonteCarlo {
+/** Whether a sample meets every target with every target quantity present (see MonteCarlo.yield). */
+export const passes = (s: Measurement, quantities: readonly Quantity[]): boolean => s.satisfied && quantities.every((q, k) => !q.target || Number.isFinite(s.values[k]));
+
+/** A sample's growth errors per layer as grown, with the layers' labels; a composition error only where the layer has a mixed fraction. */
+function layerErrors(spec: Spec, values: Readonly<Record<string, number>>, p: Perturbation): WorstSample['layers'] {
+  const layers = buildStructure(spec, values).layers;
+  return layers.map((l, i) => ({ label: l.label, ml: p.thickness_ML?.[i] ?? 0, dx: hasCompositionError(l.composition) ? (p.composition?.[i] ?? 0) : null }));
+}
+
+/** Summarises sample measurements (ordered by sample index) of the spec's quantities at the design's values. */
+export function summarise(samples: readonly Measurement[], quantities: readonly Quantity[], seed: number, spec: Spec, model: GrowthModel, values: Readonly<Record<string, number>>): MonteCarlo {
   const quantityCount = quantities.length;
   let worst = -1;
   samples.forEach((s, i) => { if (worst < 0 || s.loss > samples[worst]!.loss) worst = i; });
   const w = samples[worst];
+  const perturbation = w ? samplePerturbation(seed, worst, drawKeys(spec, model), model) : undefined;
   return {
     samples: samples.length,
     seed,
     model,
-    yield: samples.length ? samples.filter((s) => s.satisfied).length / samples.length : 0,
+    yield: samples.length ? samples.filter((s) => passes(s, quantities)).length / samples.length : 0,
     failures: samples.filter((s) => !s.ok).length,
+    missing: quantities.map((_, q) => samples.filter((s) => s.ok && !Number.isFinite(s.values[q])).length),
     distributions: Array.from({ length: quantityCount }, (_, q) => distribution(samples.map((s) => s.values[q]!))),
-    worst: w ? { index: worst, loss: w.loss, values: w.values, perturbation: samplePerturbation(seed, worst, drawKeys(spec, model), model) } : null,
+    worst: w && perturbation ? { index: worst, loss: w.loss, values: w.values, perturbation, layers: layerErrors(spec, values, perturbation) } : null,
     ensembles: ensembleSpreads(samples, quantities),
   };
 }
@@ -142,7 +164,7 @@ export async function tolerance(spec: Spec, values: Readonly<Record<string, numb
     message: TOLERANCE_MESSAGES.ok,
     ...base,
     sensitivities: sensitivities(problem, nominal, options.sensitivity),
-    montecarlo: options.samples > 0 ? summarise(samples, problem.quantities, options.seed, spec, options.growth) : null,
+    montecarlo: options.samples > 0 ? summarise(samples, problem.quantities, options.seed, spec, options.growth, values) : null,
     islands: options.islands ? islandLines(spec, values, problem.settings) : [],
   };
 }

@@ -4,6 +4,7 @@
  * transition a target names. Only the states the targets read are solved.
  */
 import { compileTargets, needsWavefunctions, scoreTargets, statesNeeded, type CompiledTarget } from '../../objectives/index.js';
+import type { ObjectiveRole } from '../../objectives/types.js';
 import type { BandName } from '../profile.js';
 import { InputError } from '../errors.js';
 import { bandOfLabel, findTransition, settingsOf, solveStructure, type SolverSettings } from '../solve.js';
@@ -16,8 +17,10 @@ export interface Quantity {
   /** "e1-hh1 wavelength" (a target), "e1-hh1 energy" (a transition the targets name) or "e1-hh1 energy of well[3]". */
   readonly label: string;
   readonly unit: string;
-  /** True for the achieved value of a target (its window decides the yield). */
+  /** True for the achieved value of a target, constraint or figure (an evaluation of the spec's targets). */
   readonly target: boolean;
+  /** For those: the evaluation's role (objectives/types.ts): a target with a window, a constraint, or a figure to maximise. */
+  readonly role?: ObjectiveRole;
   /** For a well's own line: the transition and the well's label. */
   readonly well?: { readonly transition: string; readonly label: string };
 }
@@ -26,7 +29,10 @@ export interface ToleranceProblem {
   readonly spec: Spec;
   readonly values: Readonly<Record<string, number>>;
   readonly targets: readonly CompiledTarget[];
+  /** Lines whose photon energy is a quantity of its own (those no target already measures as an energy). */
   readonly transitions: readonly string[];
+  /** Lines followed in every well of a multi-well stack (every line the targets name); empty for one well. */
+  readonly wellLines: readonly string[];
   /** Wells of a multi-well stack (labels, in stack order) whose own lines are measured; empty for one well. */
   readonly wells: readonly string[];
   readonly quantities: readonly Quantity[];
@@ -59,21 +65,23 @@ export function prepareTolerance(spec: Spec, values: Readonly<Record<string, num
   if (spec.wire !== undefined) throw new InputError('bad-value', WIRE_TOLERANCE_MESSAGE, 'wire');
   const targets = compileTargets(spec.targets);
   if (targets.length === 0) throw new InputError('bad-value', 'targets: a tolerance analysis measures the targets, got none; add e.g. - { transition: e1-hh1, wavelength: 976 nm, within: 2 nm }', 'targets');
-  const transitions = [...new Set(targets.flatMap((t) => transitionOf(t) ?? []))];
+  const named = [...new Set(targets.flatMap((t) => transitionOf(t) ?? []))];
   const settings = settingsOf(spec);
   const structure = buildStructure(spec, values);
   // Several wells: every well's own line is followed, which needs the wavefunctions and every state of the bands it reads.
   const wells = wellsOf(structure.layers).map((w) => w.label);
-  const perWell = wells.length > 1 && transitions.length > 0;
+  const perWell = wells.length > 1 && named.length > 0;
   const wavefunctions = perWell || needsWavefunctions(targets);
-  const states = perWell ? withBands(statesNeeded(targets), transitions) : statesNeeded(targets);
+  const states = perWell ? withBands(statesNeeded(targets), named) : statesNeeded(targets);
   const nominal = scoreTargets(targets, solveStructure(structure, settings, { wavefunctions, states }));
+  // A target that already measures a line's energy ("e1-e2 energy" in meV or eV) is that line's row: no second one.
+  const transitions = named.filter((line) => !nominal.evaluations.some((e) => e.label === `${line} energy`));
   const quantities: Quantity[] = [
-    ...nominal.evaluations.map((e) => ({ label: e.label, unit: e.unit, target: true })),
+    ...nominal.evaluations.map((e) => ({ label: e.label, unit: e.unit, target: true, role: e.role })),
     ...transitions.map((label) => ({ label: `${label} energy`, unit: 'meV', target: false })),
-    ...(perWell ? transitions.flatMap((line) => wells.map((w) => ({ label: `${line} energy of ${w}`, unit: 'meV', target: false, well: { transition: line, label: w } }))) : []),
+    ...(perWell ? named.flatMap((line) => wells.map((w) => ({ label: `${line} energy of ${w}`, unit: 'meV', target: false, well: { transition: line, label: w } }))) : []),
   ];
-  return { spec, values, targets, transitions, wells: perWell ? wells : [], quantities, settings, wavefunctions, states };
+  return { spec, values, targets, transitions, wellLines: perWell ? named : [], wells: perWell ? wells : [], quantities, settings, wavefunctions, states };
 }
 
 /** The states map with every band of the given transitions solved in full (a well's e1 may be any state). */
@@ -92,7 +100,7 @@ export function measure(problem: ToleranceProblem, perturbation: Perturbation = 
     const values = [
       ...scored.evaluations.map((e) => e.achieved ?? NaN),
       ...problem.transitions.map((label) => (findTransition(result, label)?.energy_eV ?? NaN) * 1000),
-      ...(problem.wells.length ? problem.transitions.flatMap((line) => problem.wells.map((_, k) => (ws && k < ws.wells.length ? wellLine(result, ws, k, line) ?? NaN : NaN) * 1000)) : []),
+      ...(problem.wells.length ? problem.wellLines.flatMap((line) => problem.wells.map((_, k) => (ws && k < ws.wells.length ? wellLine(result, ws, k, line) ?? NaN : NaN) * 1000)) : []),
     ];
     const ok = Number.isFinite(scored.loss);
     return { ok, values, residuals: scored.evaluations.map((e) => e.residual), loss: ok ? scored.loss : Infinity, satisfied: ok && scored.satisfied };

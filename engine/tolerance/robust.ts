@@ -80,7 +80,7 @@ async function assess(spec: Spec, d: Design, options: ToleranceOptions): Promise
   const problem = prepareTolerance(spec, d.values);
   const nominal = measure(problem);
   if (!nominal.ok) return { yield: 0, interval: wilsonInterval(0, options.samples), samples: options.samples, worstShift: null };
-  const mc = summarise(await runSamples(spec, d.values, options), problem.quantities, options.seed, spec, options.growth);
+  const mc = summarise(await runSamples(spec, d.values, options), problem.quantities, options.seed, spec, options.growth, d.values);
   const worst = sensitivities(problem, nominal, options.sensitivity).find((s) => s.kind === 'thickness');
   return {
     yield: mc.yield,

@@ -8,10 +8,13 @@ import { writeFileSync } from 'node:fs';
 import { join } from 'node:path';
 import { ENTRIES as CORE, ROOT } from './entries.js';
 import { SCENARIO_ENTRIES } from './scenario-entries.js';
+import { SPEED_ENTRIES } from './speed-entries.js';
+import { OPTICS_ENTRIES } from './optics-entries.js';
+import { POISSON_ENTRIES } from './poisson-entries.js';
 import { formatTable, runEntry, type BenchRow, type BenchEntry } from './harness.js';
 
 /** Every entry, the core ones first. */
-const ENTRIES: readonly BenchEntry[] = [...CORE, ...SCENARIO_ENTRIES];
+const ENTRIES: readonly BenchEntry[] = [...CORE, ...SPEED_ENTRIES, ...OPTICS_ENTRIES, ...POISSON_ENTRIES, ...SCENARIO_ENTRIES];
 
 interface Args {
   readonly json: boolean;

@@ -31,7 +31,12 @@ function pointsOf(spec: unknown): Record<string, unknown>[] {
 }
 
 /** Symbols vega draws for a point mark: one <path> each, described as a "point" (legend swatches are not). */
-const svgPointCount = (html: string): number => (html.match(/aria-roledescription="point"/g) ?? []).length;
+/** Points drawn in the sweep section's plot (the design-curve sections below it draw their own). */
+const svgPointCount = (html: string): number => {
+  const start = html.indexOf('<section id="sweep">');
+  const end = html.indexOf('</section>', start);
+  return (html.slice(start, end).match(/aria-roledescription="point"/g) ?? []).length;
+};
 
 describe('campaign report', () => {
   let wavelengthRun = '';

@@ -23,3 +23,17 @@ wire:
   margin: 4 nm
   states: 2
 `;
+
+/**
+ * A bound-to-quasi-bound detector (ours, invented): 5.2 nm GaAs in Al0.26Ga0.74As at 77 K, whose
+ * e2 sits about 10 meV below the barrier edge — the state a full-range band diagram hides.
+ */
+export const DETECTOR_SPEC = `
+title: 8 µm detector well
+substrate: GaAs
+temperature: 77 K
+stack:
+  - { material: Al0.26Ga0.74As, thickness: 30 nm, label: barrier }
+  - { material: GaAs, thickness: 5.2 nm, label: well }
+  - { material: Al0.26Ga0.74As, thickness: 30 nm, label: barrier }
+`;

@@ -36,7 +36,7 @@ describe('Monte Carlo yield', () => {
     // The window test is the target's own: recompute satisfied for any window from the same draws.
     const yieldFor = (within: number): number => e1.filter((e) => Math.abs(e - 14.7) <= within).length / e1.length;
     const direct = await runSamples(deepWell(20, target(0.5)), nominalVariables(spec0), { ...opts, samples: 40, seed: 3 });
-    expect(summarise(direct, prepareTolerance(spec0, nominalVariables(spec0)).quantities, 3, spec0, opts.growth).yield, 'yield of the ±0.5 meV target vs the same draws filtered').toBe(yieldFor(0.5));
+    expect(summarise(direct, prepareTolerance(spec0, nominalVariables(spec0)).quantities, 3, spec0, opts.growth, nominalVariables(spec0)).yield, 'yield of the ±0.5 meV target vs the same draws filtered').toBe(yieldFor(0.5));
     fc.assert(fc.property(fc.double({ min: 0, max: 5, noNaN: true }), fc.double({ min: 0, max: 1, noNaN: true }), (wide, f) => {
       const a = yieldFor(wide);
       const b = yieldFor(wide * f);
