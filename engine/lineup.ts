@@ -1,9 +1,11 @@
 /**
  * Band line-up: how each layer's edges are placed on one energy scale (the offset rule) and what
  * the placed edges give at every heterointerface (the strained ΔEc/ΔEv shares a grower compares
- * with measured offsets). Energies eV on the absolute scale of the parameter set.
+ * with measured offsets), and both as text for tables and reports. Energies eV on the absolute scale
+ * of the parameter set.
  */
 import type { ResolvedMaterial } from '../materials/types.js';
+import { fixed } from './text.js';
 
 /** Which gap difference a conduction-band share divides. */
 export type ShareGap = 'unstrained' | 'strained';
@@ -123,6 +125,13 @@ export function describeOffsetRule(rule: OffsetRule): string {
   if (rule.kind === 'absolute') return rule.source;
   return `conduction-band share ${rule.share} of the ${rule.gap} gap difference, relative to ${rule.reference}`;
 }
+
+/** Header of the interface table (shared by the terminal table and the report). */
+export const INTERFACE_HEADER = ['layers', 'ΔEc meV', 'ΔEhh meV', 'ΔElh meV', 'ΔEg meV', 'Qc', 'hh', 'lh'];
+
+/** One interface as table cells (shared by the terminal table and the report). */
+export const interfaceRow = (i: InterfaceOffset): string[] => [`${i.left + 1}|${i.right + 1}`, fixed(i.dEc_meV, 1), fixed(i.dEhh_meV, 1), fixed(i.dElh_meV, 1), fixed(i.dEg_meV, 1),
+  i.conduction_share === null ? '–' : fixed(i.conduction_share, 3), `type ${i.heavy_hole_type}`, `type ${i.light_hole_type}`];
 
 /** Edges of a resolved material. */
 export const edgesOf = (m: ResolvedMaterial): Edges & { readonly EgG: number } => ({ Ec: m.Ec, Ehh: m.Ehh, Elh: m.Elh, EgG: m.EgG });

@@ -8,8 +8,8 @@ import { buildBandProfile, isPiecewiseConstant, type BandName, type BandProfile 
 import { countStatesBelow, solveBand, twoBandFactor, wavefunction } from './solver1d.js';
 import { followResonance, resonanceWavefunction, resonanceWidth, siegertPole, type Pole } from './resonance.js';
 import { buildStructure, nominalVariables, PARAMETER_SET, type Structure } from './structure.js';
-import type { Spec } from './spec/schema.js';
-import { parseLength, parseSheetDensity } from './spec/units.js';
+import type { Spec } from './input/schema.js';
+import { parseLength, parseSheetDensity } from './input/units.js';
 import { quasiFermiLevels, quasiFermiLevelsMultiband, type HoleDispersion } from './observables/carriers.js';
 import { valenceOfSolve, type ValenceSummary } from './valence/summary.js';
 import { opticsOfSpec, type OpticsResult } from './optics/optics.js';

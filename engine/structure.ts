@@ -5,9 +5,9 @@
  * starts from this value; it is plain data so it can cross to a worker thread.
  */
 import { InputError } from './errors.js';
-import { repeatOf, type LayerSpec, type Spec, type StackEntry } from './spec/schema.js';
-import { parseField, parseLength, parseTemperature, splitQuantity, parseEnergy, type Length } from './spec/units.js';
-import { alloyFromName, alloyAt as alloyParamsAt, customMaterial, DEFAULT_MODELS, formatFormula, GROUP_III, GROUP_V, parseMaterialName, resolveMaterial, type Alloy } from '../materials/index.js';
+import { repeatOf, type LayerSpec, type Spec, type StackEntry } from './input/schema.js';
+import { parseField, parseLength, parseTemperature, splitQuantity, parseEnergy, type Length } from './input/units.js';
+import { alloyFromName, alloyAt as alloyParamsAt, customMaterial, DEFAULT_MODELS, formatFormula, GROUP_III, GROUP_V, parseMaterialName, type Alloy } from '../materials/index.js';
 import type { MaterialModels, ResolvedMaterial } from '../materials/types.js';
 import { nonparabolicity, type NonparabolicityModel } from '../materials/nonparabolicity.js';
 import { staticPermittivity } from '../materials/dielectric.js';
@@ -77,6 +77,19 @@ export interface Structure {
   /** Values of the spec's free variables that produced this structure (nm, ML or fraction). */
   readonly variables: Readonly<Record<string, number>>;
   readonly total_nm: number;
+}
+
+/**
+ * Layer indices whose Ec is a local minimum along the stack (strictly below each neighbour): the
+ * wells of a stack, as objectives, optical spectra and the island analysis count them. Ec is read
+ * at the layer's centre sample.
+ */
+export function wellLayerIndices(layers: readonly { readonly bands: readonly { readonly Ec: number }[] }[]): number[] {
+  const ec = layers.map((l) => l.bands[Math.floor(l.bands.length / 2)]!.Ec);
+  return ec.flatMap((e, i) => {
+    const nb = [ec[i - 1], ec[i + 1]].filter((x): x is number => x !== undefined);
+    return nb.length > 0 && nb.every((x) => e < x) ? [i] : [];
+  });
 }
 
 /**

@@ -12,10 +12,10 @@
  * parameter, stays within 17 meV of Nahory and 23 meV of Olego (test/materials/published.test.ts).
  */
 import { binaryOf } from './binaries.js';
-import { formatFormula, type Alloy } from './formula.js';
+import { formatFormula } from './formula.js';
 import { gapsAt, latticeAt } from './temperature.js';
 import { FIELDS, findTernary, type Field, type HoleMassBowing, type Ternary, type Values } from './ternaries.js';
-import type { BinaryParams, LatticeModel } from './types.js';
+import type { Alloy, BinaryParams, LatticeModel } from './types.js';
 
 type View = (b: BinaryParams) => Values;
 

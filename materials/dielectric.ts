@@ -8,7 +8,7 @@
  * 12.5 − 1.4x), InSb 16.8 and GaSb 15.7 (GaInSb 16.8 − 1.1x); InAs 15.15, AlP 9.8 and AlSb 12.04
  * from memory of the same archive.
  */
-import type { Alloy } from './formula.js';
+import type { Alloy } from './types.js';
 
 export const STATIC_PERMITTIVITY: Readonly<Record<string, number>> = Object.freeze({
   GaAs: 12.9, AlAs: 10.06, InAs: 15.15,

@@ -1,16 +1,10 @@
 /**
- * III–V alloy compositions as values, and the trade's formula notation for them
+ * III–V alloy compositions (Alloy, materials/types.ts): the trade's formula notation for them
  * ("Al0.3Ga0.7As", "In0.72Ga0.28As0.61P0.39", "Al0.1Ga0.37In0.53As").
  */
 import { InputError } from '../engine/errors.js';
 import { supportIssue } from './ternaries.js';
-
-/** An alloy: fractions of the group-III and group-V elements, each side summing to 1.
- * Zero fractions are kept as given ("In0Ga1As" is GaAs reached from the InGaAs side). */
-export interface Alloy {
-  readonly III: Readonly<Record<string, number>>;
-  readonly V: Readonly<Record<string, number>>;
-}
+import type { Alloy } from './types.js';
 
 /** Elements with VMR2001 parameters, in the canonical print order: In before Al before Ga so that
  * the usual names come out (In0.2Ga0.8As, Al0.3Ga0.7As, In0.52Al0.48As); As before P before Sb

@@ -19,7 +19,8 @@ import { InputError } from '../engine/errors.js';
 import { HC_EV_NM } from '../engine/constants.js';
 import { alloyAt } from './alloys.js';
 import { BINARIES } from './binaries.js';
-import { formatFormula, parseFormula, type Alloy } from './formula.js';
+import { formatFormula, parseFormula } from './formula.js';
+import type { Alloy } from './types.js';
 
 /** Temperature (K) at which a quaternary's name gives its gap wavelength. */
 export const NAMED_GAP_TEMPERATURE_K = 300;

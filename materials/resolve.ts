@@ -3,10 +3,10 @@
  */
 import { InputError } from '../engine/errors.js';
 import { alloyAt } from './alloys.js';
-import { formatFormula, validateAlloy, type Alloy } from './formula.js';
+import { formatFormula, validateAlloy } from './formula.js';
 import { electronMassAtGap, holeMasses } from './masses.js';
 import { biaxialStrain, criticalThickness, edgeShifts } from './strain.js';
-import type { ElectronMassModel, LatticeModel, MaterialModels, ResolvedMaterial } from './types.js';
+import type { Alloy, ElectronMassModel, LatticeModel, MaterialModels, ResolvedMaterial } from './types.js';
 
 /** Below this |mismatch| a layer counts as lattice-matched: no critical thickness. */
 const MATCHED = 1e-6;

@@ -4,8 +4,7 @@
  * (materials/SOURCES.md).
  */
 import { binaryOf } from './binaries.js';
-import type { Alloy } from './formula.js';
-import type { BinaryParams } from './types.js';
+import type { Alloy, BinaryParams } from './types.js';
 
 /** The numeric parameters an alloy interpolates (everything but the name and the gap laws). */
 export type Field = Exclude<keyof BinaryParams, 'name' | 'lawG' | 'lawX' | 'lawL'>;

@@ -2,6 +2,13 @@
  * Shared shapes of the materials layer. Energies in eV, lengths in nm, masses in m0, T in K.
  */
 
+/** An alloy: fractions of the group-III and group-V elements, each side summing to 1.
+ * Zero fractions are kept as given ("In0Ga1As" is GaAs reached from the InGaAs side). */
+export interface Alloy {
+  readonly III: Readonly<Record<string, number>>;
+  readonly V: Readonly<Record<string, number>>;
+}
+
 /**
  * Temperature law of one gap, from its 0 K value E0 (eV), T in K:
  * - 'varshni': E(T) = E0 − α T²/(T + β) (Y. P. Varshni, Physica 34, 149 (1967)); α in eV/K, β in K;

@@ -3,7 +3,7 @@
  * puts it beside the states), and limits written as an energy, a wavelength width or a percentage.
  */
 import { InputError } from '../engine/errors.js';
-import { parseEnergy, parseLength, splitQuantity } from '../engine/spec/units.js';
+import { parseEnergy, parseLength, splitQuantity } from '../engine/input/units.js';
 import type { AbsorptionResult } from '../engine/poisson/absorption.js';
 import type { TargetSource } from './types.js';
 

@@ -2,7 +2,7 @@
 import { z } from 'zod';
 import { InputError } from '../engine/errors.js';
 import { bandOfLabel, findState } from '../engine/solve.js';
-import { isUnitless, parseEnergy, parsePhotonEnergy, splitQuantity, unitlessNote } from '../engine/spec/units.js';
+import { isUnitless, parseEnergy, parsePhotonEnergy, splitQuantity, unitlessNote } from '../engine/input/units.js';
 import { HC_EV_NM, KB_EV_PER_K } from '../engine/constants.js';
 import type { TargetSource } from './types.js';
 
@@ -50,7 +50,7 @@ export function excitonBinding(r: TargetSource, label: string): number {
   return r.transitions.find((t) => t.label === label)?.exciton_binding_eV ?? NaN;
 }
 
-/** The unit note of a quantity written without one (see engine/spec/units.ts), as a list for an objective's warnings. */
+/** The unit note of a quantity written without one (see engine/input/units.ts), as a list for an objective's warnings. */
 export const unitNotes = (entries: readonly (readonly [raw: string | number | undefined, field: string, unit: string])[]): string[] =>
   entries.flatMap(([raw, field, unit]) => { const n = unitlessNote(raw, unit); return n ? [`${field}: ${n}`] : []; });
 
@@ -68,7 +68,7 @@ export interface PhotonScale {
   readonly fromEv: (eV: number) => number;
 }
 
-/** The default unit of each photon goal key: a bare number is read in it (engine/spec/units.ts unitlessNote). */
+/** The default unit of each photon goal key: a bare number is read in it (engine/input/units.ts unitlessNote). */
 export const PHOTON_UNITS = { energy: 'eV', wavelength: 'nm', wavenumber: 'cm-1' } as const;
 export type PhotonKey = keyof typeof PHOTON_UNITS;
 

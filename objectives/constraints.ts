@@ -7,7 +7,7 @@
  */
 import { z } from 'zod';
 import { InputError } from '../engine/errors.js';
-import { parseLength, splitQuantity } from '../engine/spec/units.js';
+import { parseLength, splitQuantity } from '../engine/input/units.js';
 import { netStrain, worstStrainRun, type StrainLayer } from '../materials/strain-balance.js';
 import type { Objective, TargetLayer } from './types.js';
 import { quantity, unitNotes } from './common.js';

@@ -3,7 +3,7 @@ import { z } from 'zod';
 import { InputError } from '../engine/errors.js';
 import { bandOfLabel } from '../engine/solve.js';
 import { HC_EV_NM } from '../engine/constants.js';
-import { isUnitless, parseEnergy, parseLength } from '../engine/spec/units.js';
+import { isUnitless, parseEnergy, parseLength } from '../engine/input/units.js';
 import { MISSING_STATE_PENALTY, type Objective } from './types.js';
 import { quantity, transitionStates, weight } from './common.js';
 import { localise, wellLine } from './wells.js';

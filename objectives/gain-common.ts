@@ -18,12 +18,11 @@ import { InputError } from '../engine/errors.js';
 import type { OpticalBandOptions } from '../engine/optics/bands.js';
 import { LINESHAPES, type LineshapeKind } from '../engine/optics/lineshape.js';
 import { opticsContext, type OpticsContext } from '../engine/optics/optics.js';
-import { DEFAULT_LINESHAPE, DEFAULT_TAU_PS, parseTime, sheetDensityOf, type OpticsSettings } from '../engine/optics/schema.js';
-import type { Population } from '../engine/optics/spectra.js';
+import { DEFAULT_LINESHAPE, DEFAULT_TAU_PS, parseTime, sheetDensityOf, type OpticsSettings, type Population } from '../engine/optics/schema.js';
 import type { SolveResult } from '../engine/solve.js';
 import type { Geometry, TargetSource } from './types.js';
 import { photonScale, quantity, type PhotonScale } from './common.js';
-import { parseEnergy, parseLength } from '../engine/spec/units.js';
+import { parseEnergy, parseLength } from '../engine/input/units.js';
 
 /** Valence settings of the optical targets (see the module comment). */
 export const SEARCH_BANDS: OpticalBandOptions = { axial: true, kPoints: 17, kMax_per_nm: 1, extrapolate: false };

@@ -8,8 +8,8 @@ import { InputError } from '../engine/errors.js';
 import { bandOfLabel } from '../engine/solve.js';
 import type { BandName } from '../engine/profile.js';
 import type { Evaluation, Geometry, Objective, TargetContext, TargetSource } from './types.js';
-import { describeIssue, fieldName, fieldPath, objectKeys, quote } from '../engine/spec/issues.js';
-import { didYouMean } from '../engine/spec/suggest.js';
+import { describeIssue, fieldName, fieldPath, objectKeys, quote } from '../engine/input/issues.js';
+import { didYouMean } from '../engine/input/suggest.js';
 import { transitionObjective } from './transition.js';
 import { absorptionPeakObjective } from './absorption-peak.js';
 import { gainPeakObjective } from './gain-peak.js';
@@ -76,7 +76,7 @@ function kindHint(entry: Readonly<Record<string, unknown>>): string {
 
 /**
  * Validates a spec's targets for a layer stack or a wire (default: stack); every error names the
- * target's field. With a context (engine/spec/check.ts) it also refuses targets that read a state
+ * target's field. With a context (engine/input/check.ts) it also refuses targets that read a state
  * beyond the solver's state limit or a layer label no layer has.
  */
 export function compileTargets(raw: readonly Record<string, unknown>[] | undefined, geometry: Geometry = 'stack', context?: TargetContext): CompiledTarget[] {

@@ -1,7 +1,7 @@
 /** Strain targets: the in-plane mismatch strain of the layers with a label, e.g. the wells at −1 %. */
 import { z } from 'zod';
 import { InputError } from '../engine/errors.js';
-import { splitQuantity } from '../engine/spec/units.js';
+import { splitQuantity } from '../engine/input/units.js';
 import { MISSING_STATE_PENALTY, type Objective } from './types.js';
 import { quantity, weight } from './common.js';
 

@@ -5,7 +5,7 @@ import { MISSING_STATE_PENALTY, type Objective, type TargetSource } from './type
 import { bandOfLabel } from '../engine/solve.js';
 import { findWell, localise, wellLine } from './wells.js';
 import { excitonBinding, PHOTON_UNITS, photonScale, quantity, transitionEnergy, transitionStates, unitNotes, weight } from './common.js';
-import { isUnitless, parseLength, parseEnergy, splitQuantity } from '../engine/spec/units.js';
+import { isUnitless, parseLength, parseEnergy, splitQuantity } from '../engine/input/units.js';
 
 const schema = z.object({
   transition: z.string().describe('e1-hh1, e1-lh1, e1-e2 …'),

@@ -7,7 +7,7 @@
 import { z } from 'zod';
 import { InputError } from '../engine/errors.js';
 import { quasiFermiLevels } from '../engine/observables/carriers.js';
-import { parseSheetDensity } from '../engine/spec/units.js';
+import { parseSheetDensity } from '../engine/input/units.js';
 import { MISSING_STATE_PENALTY, type Objective, type TargetSource } from './types.js';
 import { quantity, unitNotes, weight } from './common.js';
 import { wellsOf } from './wells.js';

@@ -4,7 +4,7 @@
  * tolerance analysis of multi-well stacks read it.
  *
  * Wells: layers whose conduction-band edge (at the layer's centre) lies strictly below both
- * neighbours' (one neighbour at the ends), as engine/tolerance/islands.ts defines them. Regions:
+ * neighbours' (one neighbour at the ends): engine/structure.ts wellLayerIndices. Regions:
  * z is split at the midpoints between consecutive wells' centres, so every point belongs to one
  * well and a state's weights sum to 1.
  *
@@ -21,6 +21,7 @@
  */
 import { BANDS, bandOfLabel } from '../engine/solve.js';
 import type { BandName } from '../engine/profile.js';
+import { wellLayerIndices } from '../engine/structure.js';
 import type { TargetLayer, TargetSource } from './types.js';
 
 export interface Well {
@@ -46,15 +47,6 @@ export interface StateHome {
 export interface WellStates {
   readonly wells: readonly Well[];
   readonly bands: Readonly<Record<BandName, readonly StateHome[]>>;
-}
-
-/** Layer indices whose Ec is a local minimum along the stack (strictly below each neighbour). */
-export function wellLayerIndices(layers: readonly Pick<TargetLayer, 'bands'>[]): number[] {
-  const ec = layers.map((l) => l.bands[Math.floor(l.bands.length / 2)]!.Ec);
-  return ec.flatMap((e, i) => {
-    const nb = [ec[i - 1], ec[i + 1]].filter((x): x is number => x !== undefined);
-    return nb.length > 0 && nb.every((x) => e < x) ? [i] : [];
-  });
 }
 
 /** The wells of a stack with their regions (see the file comment). */

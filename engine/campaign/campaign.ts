@@ -11,9 +11,9 @@ import { dirname, extname, resolve } from 'node:path';
 import { z } from 'zod';
 import { InputError } from '../errors.js';
 import { DEFAULT_DESIGN_OPTIONS, type DesignOptions } from '../design/search.js';
-import { describeIssue, fieldName, fieldPath, parseYamlText, readInputText, validateSpec } from '../spec/load.js';
-import type { Spec } from '../spec/schema.js';
-import { splitQuantity } from '../spec/units.js';
+import { describeIssue, fieldName, fieldPath, parseYamlText, readInputText, validateSpec } from '../input/load.js';
+import type { Spec } from '../input/schema.js';
+import { splitQuantity } from '../input/units.js';
 
 /** Largest campaign file (and base spec it names) read: far above any real one, far below what exhausts memory. */
 export const MAX_CAMPAIGN_BYTES = 4 * 1024 * 1024;

@@ -1,5 +1,5 @@
 /** All ranked designs of a run store as CSV rows: one line per design, one column per variable; text cells cannot start a spreadsheet formula. */
-import { csvLine as line } from '../cli/output.js';
+import { csvLine as line } from '../text.js';
 import type { RunStore } from '../store/store.js';
 
 export function designsCsv(store: RunStore): string {

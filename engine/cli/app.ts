@@ -5,7 +5,7 @@ import { runSolve } from './solve.js';
 import { runMaterials } from './materials.js';
 import { runDesign, targetHelp } from './design.js';
 import { runTargets } from './targets.js';
-import { closestNames } from '../spec/suggest.js';
+import { closestNames } from '../input/suggest.js';
 import { REPORT_SAMPLES } from '../report/defaults.js';
 import { runTolerance } from './tolerance.js';
 import { DEFAULT_TOLERANCE } from '../tolerance/analyse.js';

@@ -6,14 +6,14 @@
 import { chmodSync } from 'node:fs';
 import { basename, dirname, extname, join, resolve } from 'node:path';
 import { loadCampaignFile, type Campaign } from '../campaign/campaign.js';
-import { isSpecFile, parseYamlText, readInputText } from '../spec/load.js';
+import { isSpecFile, parseYamlText, readInputText } from '../input/load.js';
 import { designsCsv } from '../campaign/export.js';
 import { runCampaign, type RunSummary, type Shard } from '../campaign/run.js';
 import { slurmScripts } from '../campaign/slurm.js';
 import { InputError } from '../errors.js';
 import { RunStore, StoreError } from '../store/store.js';
 import { EXIT, failure, success, type Outcome } from './exit.js';
-import { sig, table, toJson } from './format.js';
+import { sig, table, toJson } from '../text.js';
 import { ensureFolder, writeFileAtomic } from './output.js';
 import { progressBar } from './progress.js';
 

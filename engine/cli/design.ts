@@ -6,12 +6,12 @@ import { defaultDesignOptions, design, type Design, type DesignResult } from '..
 import { evaluateDesign, isWireSolve, prepareDesign, valuesOf } from '../design/problem.js';
 import { wireJson } from '../wire/describe.js';
 import { designSpecText } from '../design/write.js';
-import { loadSpecFile } from '../spec/load.js';
-import type { Spec } from '../spec/schema.js';
+import { loadSpecFile } from '../input/load.js';
+import type { Spec } from '../input/schema.js';
 import { InputError } from '../errors.js';
 import { EXIT, failure, success, type Outcome } from './exit.js';
-import { fixed, sig, table, toJson, withUnit } from './format.js';
-import { csvLine, ensureFolder, writeFileAtomic } from './output.js';
+import { csvLine, fixed, sig, table, toJson, withUnit } from '../text.js';
+import { ensureFolder, writeFileAtomic } from './output.js';
 import { noteLongWork, progressBar } from './progress.js';
 import { targetsSummary } from './targets.js';
 import { solveJson } from './solve.js';

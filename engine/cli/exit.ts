@@ -14,7 +14,7 @@ export interface Outcome {
   readonly stderr: string;
 }
 
-/** A command's result: stdout, and on stderr its warnings (engine/spec/check.ts specWarnings), one "wellsmith: warning:" line each. */
+/** A command's result: stdout, and on stderr its warnings (engine/input/check.ts specWarnings), one "wellsmith: warning:" line each. */
 export const success = (stdout: string, code: number = EXIT.ok, warnings: readonly string[] = []): Outcome => ({ code, stdout, stderr: warnings.map((w) => `wellsmith: warning: ${w}\n`).join('') });
 
 /** An error as one line for stderr with its exit code; a bug (not bad input) keeps its stack and exits 3. */

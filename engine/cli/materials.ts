@@ -3,10 +3,10 @@ import { BINARIES } from '../../materials/binaries.js';
 import { formatFormula, parseFormula, resolveMaterial } from '../../materials/index.js';
 import type { ResolvedMaterial } from '../../materials/types.js';
 import { InputError } from '../errors.js';
-import { parseTemperature } from '../spec/units.js';
+import { parseTemperature } from '../input/units.js';
 import { MAX_TEMPERATURE_K } from '../structure.js';
 import { failure, success, type Outcome } from './exit.js';
-import { fixed, table, toJson } from './format.js';
+import { fixed, table, toJson } from '../text.js';
 
 export interface MaterialsArgs { readonly formula: string | undefined; readonly on: string | undefined; readonly temperature: string; readonly json: boolean }
 

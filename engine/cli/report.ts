@@ -4,7 +4,7 @@ import { bandDiagramSvg, buildReport, growthCsv, isRunStorePath, loadReportInput
 import { nominalVariables } from '../structure.js';
 import { DEFAULT_TOLERANCE, MAX_SAMPLES } from '../tolerance/analyse.js';
 import { WIRE_TOLERANCE_MESSAGE } from '../tolerance/measure.js';
-import { loadSpecFile } from '../spec/load.js';
+import { loadSpecFile } from '../input/load.js';
 import { solve } from '../solve.js';
 import { runSolve, type SolveArgs } from './solve.js';
 import { InputError } from '../errors.js';

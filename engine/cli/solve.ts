@@ -1,12 +1,12 @@
 /** `wellsmith solve SPEC`: states, transitions and 2-D DOS steps of a fixed structure. */
-import { loadSpecFile } from '../spec/load.js';
+import { loadSpecFile } from '../input/load.js';
 import { solve, BANDS, type SolveResult } from '../solve.js';
 import { describeModels, expandStack, nominalVariables, type Structure } from '../structure.js';
 import { stateRegions, stateWells, type StateRegion } from '../../objectives/wells.js';
 import { noteLongWork, progressBar } from './progress.js';
-import { describeOffsetRule, type InterfaceOffset } from '../lineup.js';
+import { describeOffsetRule, INTERFACE_HEADER, interfaceRow } from '../lineup.js';
 import { EXIT, failure, success, type Outcome } from './exit.js';
-import { fixed, inUnit, sig, table, toJson } from './format.js';
+import { fixed, inUnit, sig, table, toJson } from '../text.js';
 import { describeWire, wireJson } from '../wire/describe.js';
 import { solveWire } from '../wire/solve.js';
 import { hasDoping } from '../poisson/doping.js';
@@ -37,12 +37,6 @@ export function describeStructure(s: Structure): string {
   if (s.interfaces.length === 0) return `${head}\n${layers}`;
   return `${head}\n${layers}\n\nInterfaces (strained edges, upper layer minus lower; Qc = ΔEc/ΔEg of the strained gaps)\n${table(INTERFACE_HEADER, s.interfaces.map(interfaceRow))}`;
 }
-
-export const INTERFACE_HEADER = ['layers', 'ΔEc meV', 'ΔEhh meV', 'ΔElh meV', 'ΔEg meV', 'Qc', 'hh', 'lh'];
-
-/** One interface as table cells (shared by the terminal table and the report). */
-export const interfaceRow = (i: InterfaceOffset): string[] => [`${i.left + 1}|${i.right + 1}`, fixed(i.dEc_meV, 1), fixed(i.dEhh_meV, 1), fixed(i.dElh_meV, 1), fixed(i.dEg_meV, 1),
-  i.conduction_share === null ? '–' : fixed(i.conduction_share, 3), `type ${i.heavy_hole_type}`, `type ${i.light_hole_type}`];
 
 /** Interband lines weaker than this are left out of the human table. */
 const WEAK_OVERLAP2 = 0.01;

@@ -8,10 +8,10 @@ import type { z } from 'zod';
 import { OBJECTIVES, targetKeys } from '../../objectives/index.js';
 import type { Objective } from '../../objectives/types.js';
 import { InputError } from '../errors.js';
-import { schemaAt } from '../spec/issues.js';
-import { didYouMean } from '../spec/suggest.js';
+import { schemaAt } from '../input/issues.js';
+import { didYouMean } from '../input/suggest.js';
 import { failure, success, type Outcome } from './exit.js';
-import { toJson } from './format.js';
+import { toJson } from '../text.js';
 
 export interface TargetKey {
   readonly key: string;

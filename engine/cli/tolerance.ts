@@ -1,15 +1,16 @@
 /** `wellsmith tolerance SPEC`: growth-error sensitivities, Monte Carlo yield and island lines of one design. */
 import { InputError } from '../errors.js';
-import { loadSpecFile } from '../spec/load.js';
+import { loadSpecFile } from '../input/load.js';
 import { nominalVariables } from '../structure.js';
 import { tolerance, DEFAULT_TOLERANCE, MAX_SAMPLES, type ToleranceResult } from '../tolerance/analyse.js';
 import type { GrowthModel, MonolayerModel } from '../tolerance/montecarlo.js';
 import type { SensitivityOptions } from '../tolerance/sensitivity.js';
 import { measure, prepareTolerance } from '../tolerance/measure.js';
-import type { Spec } from '../spec/schema.js';
+import type { Spec } from '../input/schema.js';
 import type { RobustResult } from '../tolerance/robust.js';
 import { EXIT, failure, success, type Outcome } from './exit.js';
-import { fixed, inUnit, sig, signedIn, table, toJson, withUnit } from './format.js';
+import { fixed, inUnit, sig, signed, signedIn, table, toJson, withUnit } from '../text.js';
+import { worstText } from '../tolerance/describe.js';
 import { noteLongWork, progressBar } from './progress.js';
 
 export interface ToleranceArgs {
@@ -46,19 +47,10 @@ export function parseMonolayerTable(text: string): MonolayerModel {
 const modelText = (m: MonolayerModel): string =>
   m.kind === 'sigma' ? `σ ${m.sigma} ML rounded to whole ML` : m.table.map((r) => `${r.ml >= 0 ? '+' : ''}${r.ml} ML: ${r.p}`).join(', ');
 
-const signed = (x: number, digits: number): string => (Number.isFinite(x) ? `${x >= 0 ? '+' : ''}${x.toFixed(digits)}` : '–');
-
 /** "; 37 samples lose a quantity a target reads (e1-e2 energy 37) and count as failures", or '' when none does. */
 function missingText(mc: NonNullable<ToleranceResult['montecarlo']>, q: ToleranceResult['quantities']): string {
   const lost = q.flatMap((x, k) => (x.target && (mc.missing[k] ?? 0) > 0 ? [`${x.label} missing in ${mc.missing[k]}`] : []));
   return lost.length ? `; failures include samples where a quantity a target reads does not exist (${lost.join(', ')})` : '';
-}
-
-/** The worst sample: its loss, every quantity, and the growth errors that made it (per layer: ML and, for mixed alloys, Δx; the growth rate). */
-export function worstText(w: NonNullable<NonNullable<ToleranceResult['montecarlo']>['worst']>, q: ToleranceResult['quantities']): string {
-  const values = q.map((x, k) => `${x.label} ${Number.isFinite(w.values[k]) ? withUnit(w.values[k]!, x.unit) : 'missing'}`).join('; ');
-  const errors = w.layers.map((l) => `${l.label} ${l.ml >= 0 ? '+' : ''}${l.ml} ML${l.dx === null ? '' : `, Δx ${signed(l.dx, 4)}`}`).join('; ');
-  return `worst sample #${w.index}: loss ${sig(w.loss, 3)}; ${values}; growth errors: ${errors}; growth rate ${signed(((w.perturbation.thicknessScale ?? 1) - 1) * 100, 2)} %`;
 }
 
 export function describeTolerance(r: ToleranceResult, title: string | undefined, s: SensitivityOptions): string {

@@ -11,8 +11,8 @@
  * with the ties, on the full solves (compareDesigns).
  */
 import { InputError } from '../errors.js';
-import type { PreferenceSpec, Spec } from '../spec/schema.js';
-import { splitQuantity } from '../spec/units.js';
+import type { PreferenceSpec, Spec } from '../input/schema.js';
+import { splitQuantity } from '../input/units.js';
 import { findTransition, type SolveResult } from '../solve.js';
 import type { Structure } from '../structure.js';
 import { worstStrainRun, netStrain } from '../../materials/strain-balance.js';

@@ -11,7 +11,7 @@ import type { Geometry } from '../../objectives/types.js';
 import type { BandName } from '../profile.js';
 import { BANDS, DEFAULT_STATE_LIMIT, solveStructure, settingsOf, type SolveResult, type SolverSettings } from '../solve.js';
 import { buildStructure, variablesOf, type VariableInfo } from '../structure.js';
-import type { Spec } from '../spec/schema.js';
+import type { Spec } from '../input/schema.js';
 import { buildWireStructure, type WireSettings } from '../wire/structure.js';
 import { solveWire, solveWireStructure, type WireSolveResult } from '../wire/solve.js';
 import { bandOfLabel } from '../solve.js';

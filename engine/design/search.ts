@@ -8,7 +8,7 @@
  */
 import { type Evaluation } from '../../objectives/types.js';
 import { runTasks, type PoolOptions } from '../pool.js';
-import type { Spec } from '../spec/schema.js';
+import type { Spec } from '../input/schema.js';
 import type { VariableInfo } from '../structure.js';
 import { scoreTargets } from '../../objectives/index.js';
 import { fullSolve, isWireSolve, prepareDesign, type DesignProblem, type DesignSolve } from './problem.js';

@@ -3,7 +3,7 @@
  * from x0, then the snap of its optimum to whole monolayers and the composition step. Plain data
  * in, plain data out, so the result does not depend on which worker ran it.
  */
-import type { Spec } from '../spec/schema.js';
+import type { Spec } from '../input/schema.js';
 import { minimize, type NelderMeadStatus } from './neldermead.js';
 import { evaluateDesign, prepareDesign, valuesOf } from './problem.js';
 import { snapToLattice } from './snap.js';

@@ -4,7 +4,7 @@
  * written in JavaScript's shortest round-trip form, so nothing is lost in the text.
  */
 import { stringify } from 'yaml';
-import type { Spec } from '../spec/schema.js';
+import type { Spec } from '../input/schema.js';
 import { variablesOf } from '../structure.js';
 
 export function designSpec(spec: Spec, values: Readonly<Record<string, number>>): Spec {

@@ -25,10 +25,10 @@ import { weightedGrid } from '../observables/matrix-elements.js';
 import { buildBandProfile, type BandProfile } from '../profile.js';
 import type { SolveResult } from '../solve.js';
 import { twoBandFactor } from '../solver1d.js';
+import { wellLayerIndices } from '../structure.js';
 import { valenceSubbands } from '../valence/dispersion.js';
 import { angularQuadrature, holeDispersion } from '../valence/dos.js';
 import { MAX_VALENCE_SUBBANDS, VALENCE_K_MAX_PER_NM, VALENCE_K_POINTS } from '../valence/summary.js';
-import { wellLayerIndices } from '../../objectives/wells.js';
 import { EDGE_FACTORS, kaneEnergyOnGrid, polarisationFactors } from './momentum.js';
 
 export type OpticalModel = 'kp4' | 'kp6' | 'parabolic';

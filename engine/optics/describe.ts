@@ -1,5 +1,5 @@
 /** The human summary of an optics result for `wellsmith solve` (the spectra themselves are in --json and the report). */
-import { fixed, sig, table } from '../cli/format.js';
+import { fixed, sig, table } from '../text.js';
 import { HC_EV_NM } from '../constants.js';
 import type { OpticsResult } from './optics.js';
 

@@ -5,7 +5,8 @@
  */
 import { HC_EV_NM } from '../constants.js';
 import { rootOfIncreasing } from '../observables/fermi.js';
-import type { BinSums, Population, SpectrumEngine } from './spectra.js';
+import type { Population } from './schema.js';
+import type { BinSums, SpectrumEngine } from './spectra.js';
 
 export type Polarisation = 'te' | 'tm';
 

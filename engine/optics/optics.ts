@@ -12,8 +12,8 @@ import { differentialGain, gainPeak, logFit, transparencyDensity, type GainPeak,
 import { lineshape, type LineshapeKind } from './lineshape.js';
 import { wellIndex, type RefractiveIndex } from './refractive.js';
 import { BGR_COEFFICIENT, gapShift } from './renormalisation.js';
-import { DEFAULT_CURVE_POINTS, DEFAULT_PHOTON_POINTS, opticsSettings, sheetDensityOf, type OpticsSettings, type OpticsSpec } from './schema.js';
-import { SpectrumEngine, type Levels, type Population } from './spectra.js';
+import { DEFAULT_CURVE_POINTS, DEFAULT_PHOTON_POINTS, opticsSettings, sheetDensityOf, type OpticsSettings, type OpticsSpec, type Population } from './schema.js';
+import { SpectrumEngine, type Levels } from './spectra.js';
 
 /** Default spectral range around the band-edge line (eV): below it, and above it. */
 export const PHOTON_BELOW_EV = 0.05;

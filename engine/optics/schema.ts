@@ -5,9 +5,14 @@
  */
 import { z } from 'zod';
 import { InputError } from '../errors.js';
-import { parsePhotonEnergy, parseSheetDensity, splitQuantity } from '../spec/units.js';
+import { parsePhotonEnergy, parseSheetDensity, splitQuantity } from '../input/units.js';
 import { LINESHAPES, type LineshapeKind } from './lineshape.js';
-import type { Population } from './spectra.js';
+
+/** An injected population: electron and hole sheet densities (cm⁻², ≥ 0; 0 and 0 is the unpumped well). */
+export interface Population {
+  readonly electrons_cm2: number;
+  readonly holes_cm2: number;
+}
 
 const quantity = z.union([z.number(), z.string()]);
 

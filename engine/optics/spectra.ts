@@ -33,6 +33,7 @@ import { InputError } from '../errors.js';
 import { electronFermiLevelForDensity, holeFermiLevelForDensity } from '../observables/carriers.js';
 import type { OpticalBands } from './bands.js';
 import type { Lineshape } from './lineshape.js';
+import type { Population } from './schema.js';
 
 /** Speed of light (m/s), from hc and ħ of the constants module (exact in SI). */
 const C_M_PER_S = (HC_EV_NM * 1e-9) / (2 * Math.PI * HBAR_EV_S);
@@ -42,12 +43,6 @@ const HBAR_J_S = HBAR_EV_S * ELEMENTARY_CHARGE_C;
  * π e² ħ/(6 c ε0 m0) in J m², times 1 nm⁻² eV⁻¹ = 1e18/e m⁻² J⁻¹, over 1 nm, in cm⁻¹.
  */
 export const GAIN_UNIT = ((Math.PI * ELEMENTARY_CHARGE_C ** 2 * HBAR_J_S) / (6 * C_M_PER_S * EPSILON0_F_PER_M * ELECTRON_MASS_KG)) * (1e18 / ELEMENTARY_CHARGE_C) / 1e-9 / 100;
-
-/** An injected population: electron and hole sheet densities (cm⁻², ≥ 0; 0 and 0 is the unpumped well). */
-export interface Population {
-  readonly electrons_cm2: number;
-  readonly holes_cm2: number;
-}
 
 export interface SpectrumOptions {
   /** Photon energies (eV), ascending. */

@@ -8,8 +8,8 @@
  * Units: V, kV/cm, nm.
  */
 import { InputError } from '../errors.js';
-import type { Spec } from '../spec/schema.js';
-import { parseField, splitQuantity } from '../spec/units.js';
+import type { Spec } from '../input/schema.js';
+import { parseField, splitQuantity } from '../input/units.js';
 import { MAX_FIELD_KV_PER_CM, type Structure } from '../structure.js';
 import { biasSchema } from './schema.js';
 

@@ -7,8 +7,8 @@
  */
 import { InputError } from '../errors.js';
 import { settingsOf, solveStructure, type SolveOptions, type SolveResult, type SolverSettings } from '../solve.js';
-import type { Spec } from '../spec/schema.js';
-import { parseEnergy, parseLength } from '../spec/units.js';
+import type { Spec } from '../input/schema.js';
+import { parseEnergy, parseLength } from '../input/units.js';
 import { buildStructure, nominalVariables, type Structure } from '../structure.js';
 import { continuumFor, DEFAULT_ABSORPTION, intersubbandAbsorption, type AbsorptionOptions, type AbsorptionResult } from './absorption.js';
 import { atBias, biasPoints, fieldPoint, type BiasPoint } from './bias.js';

@@ -7,8 +7,8 @@
  * (volume) and nm⁻² (sheet), net = donors − acceptors; totals in cm⁻² for reports.
  */
 import { InputError } from '../errors.js';
-import type { Spec } from '../spec/schema.js';
-import { parseLength, splitQuantity } from '../spec/units.js';
+import type { Spec } from '../input/schema.js';
+import { parseLength, splitQuantity } from '../input/units.js';
 import { stackLayers, type Structure } from '../structure.js';
 import { dopingSectionSchema, layerDopingSchema, type BackgroundSpec, type DopingEntrySpec, type DopingSectionSpec, type LayerDopingSpec } from './schema.js';
 import type { z } from 'zod';

@@ -4,7 +4,7 @@
  * Fermi level(s) and the subbands' sheet densities, the absorption peak with its lines, and one row
  * per bias of a sweep. `--json` prints the result object itself.
  */
-import { fixed, inUnit, sig, table } from '../cli/format.js';
+import { fixed, inUnit, sig, table } from '../text.js';
 import type { DopedSpecResult } from './doped.js';
 
 export function describeDoped(r: DopedSpecResult): string {

@@ -1,5 +1,5 @@
 /**
- * The spec keys of doped structures (ours), as zod pieces for engine/spec/schema.ts: a layer's
+ * The spec keys of doped structures (ours), as zod pieces for engine/input/schema.ts: a layer's
  * `doping:` (volume densities over the layer or a part of it, or a delta sheet inside it; donors or
  * acceptors), the top-level `doping:` section (a background and the self-consistent solve's
  * settings), `bias:` (voltages or fields at which a doped stack is solved) and `absorption:` (how

@@ -8,10 +8,10 @@
  */
 import type { TopLevelSpec } from 'vega-lite';
 import { RunStore } from '../store/store.js';
-import type { Spec } from '../spec/schema.js';
-import { splitQuantity } from '../spec/units.js';
+import type { Spec } from '../input/schema.js';
+import { splitQuantity } from '../input/units.js';
 import { variablesOf } from '../structure.js';
-import type { CampaignReport } from './campaign.js';
+import type { CampaignReport } from './campaign-read.js';
 import { figureHtml, type Section } from './html.js';
 import { PALETTE } from './palette.js';
 import { renderSvg } from './render.js';

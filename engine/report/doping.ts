@@ -7,7 +7,7 @@
  */
 import type { TopLevelSpec } from 'vega-lite';
 import type { DopedSpecResult } from '../poisson/doped.js';
-import { fixed, sig } from '../cli/format.js';
+import { fixed, sig } from '../text.js';
 import { figureHtml, htmlTable, type Section } from './html.js';
 import { PALETTE } from './palette.js';
 import { HC_EV_NM } from '../constants.js';

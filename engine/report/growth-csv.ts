@@ -1,5 +1,5 @@
 /** The growth sheet as CSV (RFC 4180), one row per layer and a total line; text cells cannot start a spreadsheet formula. */
-import { csvLine as line } from '../cli/output.js';
+import { csvLine as line } from '../text.js';
 import type { GrowthSheet } from './growth.js';
 
 export function growthCsv(g: GrowthSheet): string {

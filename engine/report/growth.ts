@@ -19,7 +19,7 @@
  */
 import { InputError } from '../errors.js';
 import type { Structure, ResolvedLayer } from '../structure.js';
-import { splitQuantity } from '../spec/units.js';
+import { splitQuantity } from '../input/units.js';
 import { binaryOf } from '../../materials/index.js';
 
 /** Largest accepted difference between the composition the cells imply and the layer's (fraction). */

@@ -12,7 +12,8 @@ export { bandDiagramSvg, SECTION_BUILDERS } from './sections.js';
 export { escapeHtml } from './html.js';
 export { PALETTE, BAND_COLOURS } from './palette.js';
 export { wireSections, materialsMapSpec, stateMapsSpec, wireDosSpec, MAPPED_STATES } from './wire.js';
-export { readCampaign, isRunStorePath, campaignPlotSpec, sweptTransition, campaignSections, type CampaignReport, type CampaignJob, type SweepPoint } from './campaign.js';
+export { readCampaign, isRunStorePath, type CampaignReport, type CampaignJob } from './campaign-read.js';
+export { campaignPlotSpec, sweptTransition, campaignSections, type SweepPoint } from './campaign.js';
 export { REPORT_SAMPLES } from './defaults.js';
 export { toleranceReport, toleranceSection, targetWindows, histogram, yieldText, type ToleranceReport, type TargetWindow } from './tolerance.js';
 

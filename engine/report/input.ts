@@ -9,7 +9,7 @@
 import { hasDoping } from '../poisson/doping.js';
 import { solveDoped } from '../poisson/doped.js';
 import { InputError } from '../errors.js';
-import { parseSpecText, readInputText, type LoadedSpec } from '../spec/load.js';
+import { parseSpecText, readInputText, type LoadedSpec } from '../input/load.js';
 import { solve, type SolveResult } from '../solve.js';
 import { specFromRecorded } from './recorded.js';
 import { compileTargets, scoreTargets, type Scored } from '../../objectives/index.js';
@@ -19,7 +19,8 @@ import { growthSheet, type GrowthSheet } from './growth.js';
 import { isWireJson, wireFromJson } from './wire.js';
 import { solveWire, type WireSolveResult } from '../wire/solve.js';
 import { isToleranceJson, toleranceFromJson, type ToleranceReport } from './tolerance.js';
-import { isRunStorePath, readCampaign, reviveNumbers, type CampaignReport } from './campaign.js';
+import { isRunStorePath, readCampaign, type CampaignReport } from './campaign-read.js';
+import { reviveNumbers } from '../text.js';
 
 /** One ranked design as `design --json` records it. */
 export interface RankedDesign {

@@ -4,7 +4,7 @@
  * fit, the spontaneous-emission spectra, and the table of figures per density.
  */
 import type { TopLevelSpec } from 'vega-lite';
-import { fixed, sig } from '../cli/format.js';
+import { fixed, sig } from '../text.js';
 import { HC_EV_NM } from '../constants.js';
 import type { OpticsResult } from '../optics/optics.js';
 import { figureHtml, htmlTable, type Section } from './html.js';

@@ -7,8 +7,8 @@
  * exactly: thicknesses and fractions are carried as the same doubles.
  */
 import { InputError } from '../errors.js';
-import { validateSpec } from '../spec/load.js';
-import type { Spec } from '../spec/schema.js';
+import { validateSpec } from '../input/load.js';
+import type { Spec } from '../input/schema.js';
 
 const isRecord = (v: unknown): v is Record<string, unknown> => typeof v === 'object' && v !== null && !Array.isArray(v);
 

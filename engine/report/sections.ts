@@ -4,11 +4,10 @@
  * and the shared sections below stay as they are.
  */
 import { BANDS, type SolveResult } from '../solve.js';
-import { fixed, inUnit, sig, withUnit } from '../cli/format.js';
-import { describeOffsetRule } from '../lineup.js';
+import { fixed, inUnit, sig, withUnit } from '../text.js';
+import { describeOffsetRule, INTERFACE_HEADER, interfaceRow } from '../lineup.js';
 import { opticsSection } from './optics.js';
 import { describeModels } from '../structure.js';
-import { INTERFACE_HEADER, interfaceRow } from '../cli/solve.js';
 import type { Scored } from '../../objectives/index.js';
 import type { Evaluation } from '../../objectives/types.js';
 import { figureHtml, htmlTable, type Section } from './html.js';
@@ -22,6 +21,7 @@ import { toleranceSection } from './tolerance.js';
 import { wireSections } from './wire.js';
 import { campaignSections } from './campaign.js';
 import { dopingSections } from './doping.js';
+import { MIN_OSCILLATOR_STRENGTH, MIN_OVERLAP2 } from './defaults.js';
 import type { DopedSpecResult } from '../poisson/doped.js';
 
 /** The band diagram with states as standalone SVG (also what `solve --plot` writes). */
@@ -87,11 +87,6 @@ export function statesSection(r: SolveResult, id = 'states'): Section {
       : htmlTable(header, rowsOf(false), numeric),
   };
 }
-
-/** Interband pairs with a smaller envelope overlap² are (nearly) forbidden and left out of the table. */
-export const MIN_OVERLAP2 = 0.05;
-/** Intersubband pairs with a smaller oscillator strength are left out of the table. */
-export const MIN_OSCILLATOR_STRENGTH = 0.01;
 
 export function transitionsSection(r: SolveResult, id = 'transitions'): Section {
   const strong = (x: number | undefined, min: number): boolean => x === undefined || !Number.isFinite(x) || Math.abs(x) >= min;

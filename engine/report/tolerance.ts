@@ -6,16 +6,16 @@
  */
 import type { TopLevelSpec } from 'vega-lite';
 import { InputError } from '../errors.js';
-import { fixed, inUnit, sig, signedIn, withUnit } from '../cli/format.js';
+import { fixed, inUnit, sig, signedIn, withUnit } from '../text.js';
 import { settingsOf, solveStructure } from '../solve.js';
-import type { Spec } from '../spec/schema.js';
+import type { Spec } from '../input/schema.js';
 import { buildStructure } from '../structure.js';
 import { runSamples, summarise, tolerance, type ToleranceOptions, type ToleranceResult } from '../tolerance/analyse.js';
 import { prepareTolerance, type Measurement } from '../tolerance/measure.js';
 import { scoreTargets } from '../../objectives/index.js';
 import { escapeHtml, figureHtml, htmlTable, type Section } from './html.js';
 import type { ObjectiveRole } from '../../objectives/types.js';
-import { worstText } from '../cli/tolerance.js';
+import { worstText } from '../tolerance/describe.js';
 import { PALETTE } from './palette.js';
 import { renderSvg } from './render.js';
 
@@ -83,7 +83,7 @@ const isRecord = (v: unknown): v is Record<string, unknown> => typeof v === 'obj
 export const isToleranceJson = (v: unknown): v is Record<string, unknown> =>
   isRecord(v) && Array.isArray(v.quantities) && Array.isArray(v.sensitivities) && isRecord(v.nominal) && 'montecarlo' in v;
 
-/** format.ts toJson writes NaN as null: read it back as NaN wherever a number belongs. */
+/** toJson (engine/text.ts) writes NaN as null: read it back as NaN wherever a number belongs. */
 const num = (v: unknown): number => (typeof v === 'number' ? v : NaN);
 const nums = (v: unknown): number[] => (Array.isArray(v) ? v.map(num) : []);
 

@@ -6,14 +6,14 @@
  */
 import type { TopLevelSpec } from 'vega-lite';
 import { InputError } from '../errors.js';
-import { fixed, inUnit, sig } from '../cli/format.js';
+import { fixed, inUnit, sig } from '../text.js';
 import type { BandName } from '../profile.js';
 import { BANDS } from '../solve.js';
 import type { WireSolveResult } from '../wire/solve.js';
 import { figureHtml, htmlTable, type Section } from './html.js';
 import { BAND_COLOURS, BAND_NAMES, PALETTE } from './palette.js';
 import { renderSvg } from './render.js';
-import { MIN_OVERLAP2 } from './sections.js';
+import { MIN_OVERLAP2 } from './defaults.js';
 
 /** States mapped per band (the tables list them all). */
 export const MAPPED_STATES = 2;

@@ -5,7 +5,7 @@
  * 'no-finite-value', not an exception.
  */
 import { runTasks, type PoolOptions } from '../pool.js';
-import type { Spec } from '../spec/schema.js';
+import type { Spec } from '../input/schema.js';
 import { buildStructure, hasCompositionError, type Perturbation } from '../structure.js';
 import { islandLines, type WellIslands } from './islands.js';
 import { measure, prepareTolerance, type Measurement, type Quantity } from './measure.js';

@@ -12,9 +12,8 @@
  * between w ± 1 ML, so free-carrier splittings stand in for excitonic ones).
  */
 import { findTransition, solveStructure, type SolverSettings } from '../solve.js';
-import type { Spec } from '../spec/schema.js';
-import { buildStructure, type Structure } from '../structure.js';
-import { wellLayerIndices } from '../../objectives/wells.js';
+import type { Spec } from '../input/schema.js';
+import { buildStructure, wellLayerIndices, type Structure } from '../structure.js';
 
 export interface IslandLine {
   /** "e1-hh1" or "e1-lh1". */

@@ -9,7 +9,7 @@ import type { BandName } from '../profile.js';
 import { InputError } from '../errors.js';
 import { bandOfLabel, findTransition, settingsOf, solveStructure, type SolverSettings } from '../solve.js';
 import { localise, wellLine, wellsOf } from '../../objectives/wells.js';
-import type { Spec } from '../spec/schema.js';
+import type { Spec } from '../input/schema.js';
 import { buildStructure, type Perturbation } from '../structure.js';
 
 /** One measured quantity: a target's achieved value, a named transition's energy, or that line in one well. */

@@ -8,7 +8,7 @@
  * only on (seed, index), results are identical for any worker count or batch size.
  */
 import { deriveSeed, Random } from '../random.js';
-import type { Spec } from '../spec/schema.js';
+import type { Spec } from '../input/schema.js';
 import { stackLayers, type Perturbation } from '../structure.js';
 import { measure, prepareTolerance, type Measurement } from './measure.js';
 

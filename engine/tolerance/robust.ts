@@ -5,7 +5,7 @@
  * intervals overlap are not told apart by the samples, and the design ranking stands there.
  */
 import type { Design, DesignResult } from '../design/search.js';
-import type { Spec } from '../spec/schema.js';
+import type { Spec } from '../input/schema.js';
 import { measure, prepareTolerance } from './measure.js';
 import { summarise, runSamples, type ToleranceOptions } from './analyse.js';
 import { sensitivities } from './sensitivity.js';

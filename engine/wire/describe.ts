@@ -1,6 +1,6 @@
 /** Human table and machine-readable form of a wire solve, for `wellsmith solve` on a wire spec. */
 import type { BandName } from '../profile.js';
-import { fixed, sig, table } from '../cli/format.js';
+import { fixed, sig, table } from '../text.js';
 import { describeModels } from '../structure.js';
 import { describeOffsetRule } from '../lineup.js';
 import type { WireSolveResult } from './solve.js';

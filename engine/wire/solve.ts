@@ -15,7 +15,7 @@ import { HC_EV_NM, wavenumberPerCm } from '../constants.js';
 import { InputError } from '../errors.js';
 import type { BandName, BandProfile } from '../profile.js';
 import { solveBand } from '../solver1d.js';
-import type { Spec } from '../spec/schema.js';
+import type { Spec } from '../input/schema.js';
 import type { TransitionResult } from '../solve.js';
 import { nominalVariables, PARAMETER_SET } from '../structure.js';
 import { sampleCrossSection, solveCrossSectionConverged, type CrossSectionBox, type CrossSectionGrid, type CrossSectionMaterial } from '../solver2d.js';

@@ -11,8 +11,8 @@
  * indicative only.
  */
 import { InputError } from '../errors.js';
-import type { Spec } from '../spec/schema.js';
-import { parseEnergy, parseLength, splitQuantity } from '../spec/units.js';
+import type { Spec } from '../input/schema.js';
+import { parseEnergy, parseLength, splitQuantity } from '../input/units.js';
 import { buildStructure, variablesOf, type LayerBands, type OffsetRule, type StructureModels } from '../structure.js';
 import { DEFAULT_SETTINGS } from '../solve.js';
 import type { ResolvedMaterial } from '../../materials/types.js';

@@ -4,7 +4,7 @@
  * the odd slow run caused by garbage collection or other processes on the machine.
  */
 import { spawnSync } from 'node:child_process';
-import { fixed, table } from '../../engine/cli/format.js';
+import { fixed, table } from '../../engine/text.js';
 
 /** How often a benchmark runs: `warmup` untimed calls, then timed calls until both minimums are met or `maxRuns` is reached. */
 export interface RepeatPolicy {

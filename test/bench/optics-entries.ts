@@ -12,7 +12,7 @@ import { opticsContext } from '../../engine/optics/optics.js';
 import { opticsSettings } from '../../engine/optics/schema.js';
 import { SpectrumEngine } from '../../engine/optics/spectra.js';
 import { settingsOf, solveStructure } from '../../engine/solve.js';
-import { loadSpecFile, parseSpecText } from '../../engine/spec/load.js';
+import { loadSpecFile, parseSpecText } from '../../engine/input/load.js';
 import { buildStructure, nominalVariables } from '../../engine/structure.js';
 import { SEARCH_BANDS, SEARCH_PHOTON_POINTS } from '../../objectives/gain-common.js';
 import { HEAVY_POLICY, type BenchEntry } from './harness.js';

@@ -11,9 +11,9 @@ import { beforeAll, describe, expect, it } from 'vitest';
 import { loadCampaignFile } from '../../engine/campaign/campaign.js';
 import { runCampaign } from '../../engine/campaign/run.js';
 import { design, DEFAULT_DESIGN_OPTIONS } from '../../engine/design/search.js';
-import { readCampaign } from '../../engine/report/campaign.js';
+import { readCampaign } from '../../engine/report/campaign-read.js';
 import { RunStore, STORE_FILE, STORE_FORMAT, storedResult } from '../../engine/store/store.js';
-import { loadSpecFile } from '../../engine/spec/load.js';
+import { loadSpecFile } from '../../engine/input/load.js';
 import { ROOT, tempDir } from './helpers.js';
 
 /** One job of the intersubband detector (its oscillator-strength target reads wavefunctions). */

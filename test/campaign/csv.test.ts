@@ -8,7 +8,7 @@ import { describe, expect, it } from 'vitest';
 import { designsCsv } from '../../engine/campaign/export.js';
 import { growthSheet } from '../../engine/report/growth.js';
 import { growthCsv } from '../../engine/report/growth-csv.js';
-import { parseSpecText } from '../../engine/spec/load.js';
+import { parseSpecText } from '../../engine/input/load.js';
 import { RunStore } from '../../engine/store/store.js';
 import { buildStructure, nominalVariables } from '../../engine/structure.js';
 import { tempDir } from './helpers.js';

@@ -8,14 +8,14 @@
  */
 import { readFileSync } from 'node:fs';
 import { describe, expect, it } from 'vitest';
-import { loadSpecFile, parseSpecText } from '../../engine/spec/load.js';
+import { loadSpecFile, parseSpecText } from '../../engine/input/load.js';
 import { design, type DesignResult } from '../../engine/design/search.js';
 import { comparePreferences, compilePreferences } from '../../engine/design/preferences.js';
 import { nearDuplicates, stackFingerprint } from '../../engine/design/duplicates.js';
 import { separatedOrder, wilsonInterval } from '../../engine/tolerance/robust.js';
 import { buildStructure } from '../../engine/structure.js';
 import { cli } from '../../engine/cli/app.js';
-import type { Spec } from '../../engine/spec/schema.js';
+import type { Spec } from '../../engine/input/schema.js';
 import type { SolveResult } from '../../engine/solve.js';
 
 const pump = loadSpecFile('runs/pump-976.yaml').spec;

@@ -5,11 +5,11 @@
 import { describe, expect, it } from 'vitest';
 import fc from 'fast-check';
 import { readFileSync } from 'node:fs';
-import { parseSpecText } from '../../engine/spec/load.js';
+import { parseSpecText } from '../../engine/input/load.js';
 import { findTransition, solve } from '../../engine/solve.js';
 import { design } from '../../engine/design/search.js';
 import { designSpec } from '../../engine/design/write.js';
-import type { Spec } from '../../engine/spec/schema.js';
+import type { Spec } from '../../engine/input/schema.js';
 
 const BASE: Spec = parseSpecText(readFileSync('test/fixtures/design/ingaas-two-variable.yaml', 'utf8'), 'ingaas-two-variable.yaml').spec;
 const WINDOW_NM = 3;

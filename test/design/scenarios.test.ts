@@ -8,7 +8,7 @@
 import { readFileSync } from 'node:fs';
 import { describe, expect, it } from 'vitest';
 import { cli } from '../../engine/cli/app.js';
-import { loadSpecFile } from '../../engine/spec/load.js';
+import { loadSpecFile } from '../../engine/input/load.js';
 import { solve } from '../../engine/solve.js';
 import { compileTargets, scoreTargets } from '../../objectives/index.js';
 import { stateWells } from '../../objectives/wells.js';

@@ -9,7 +9,7 @@ import { describe, expect, it } from 'vitest';
 import fc from 'fast-check';
 import { compileTargets, scoreTargets, OBJECTIVES } from '../../objectives/index.js';
 import { transparencyDensity } from '../../objectives/transparency.js';
-import { parseSpecText } from '../../engine/spec/load.js';
+import { parseSpecText } from '../../engine/input/load.js';
 import { buildStructure, nominalVariables } from '../../engine/structure.js';
 import { solveStructure, settingsOf, type SolveResult } from '../../engine/solve.js';
 import { HBAR2_OVER_2M0, KB_EV_PER_K } from '../../engine/constants.js';

@@ -13,7 +13,7 @@ import { Piscina } from 'piscina';
 import { bundle } from '../../scripts/bundle.js';
 import { cli } from '../../engine/cli/app.js';
 import { designTasks, DEFAULT_DESIGN_OPTIONS } from '../../engine/design/search.js';
-import { loadSpecFile } from '../../engine/spec/load.js';
+import { loadSpecFile } from '../../engine/input/load.js';
 import work, { type WorkerResponse, type WorkerTask } from '../../engine/worker.js';
 import { ROOT } from '../campaign/helpers.js';
 

@@ -11,11 +11,11 @@ import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { stringify } from 'yaml';
 import { cli } from '../../engine/cli/app.js';
-import { parseSpecText } from '../../engine/spec/load.js';
+import { parseSpecText } from '../../engine/input/load.js';
 import { solve } from '../../engine/solve.js';
 import { solveJson } from '../../engine/cli/solve.js';
 import { EXIT, failure, success, type Outcome } from '../../engine/cli/exit.js';
-import { toJson } from '../../engine/cli/format.js';
+import { toJson } from '../../engine/text.js';
 
 type Json = null | boolean | number | string | Json[] | { [k: string]: Json };
 

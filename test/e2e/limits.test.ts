@@ -4,7 +4,7 @@ import { mkdtempSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { cli } from '../../engine/cli/app.js';
-import { MAX_SPEC_BYTES } from '../../engine/spec/load.js';
+import { MAX_SPEC_BYTES } from '../../engine/input/load.js';
 
 describe('input size limits', () => {
   it('a spec file above the limit is refused at once with exit 2, naming the limit', async () => {

@@ -8,7 +8,7 @@
  */
 import { describe, expect, it } from 'vitest';
 import { alloyAt, formatFormula, parseMaterialName, resolveMaterial } from '../../materials/index.js';
-import { parseSpecText } from '../../engine/spec/load.js';
+import { parseSpecText } from '../../engine/input/load.js';
 import { buildStructure } from '../../engine/structure.js';
 import { HC_EV_NM } from '../../engine/constants.js';
 import { expectClose, expectInputError } from './check.js';

@@ -11,14 +11,14 @@
  */
 import { describe, expect, it } from 'vitest';
 import fc from 'fast-check';
-import { loadSpecFile } from '../../engine/spec/load.js';
+import { loadSpecFile } from '../../engine/input/load.js';
 import { findTransition, settingsOf, solveStructure } from '../../engine/solve.js';
 import { buildStructure } from '../../engine/structure.js';
 import { design } from '../../engine/design/search.js';
 import { opticsOfSolve } from '../../engine/optics/optics.js';
 import { opticsSettings } from '../../engine/optics/schema.js';
 import { compileTargets, scoreTargets } from '../../objectives/index.js';
-import type { Spec } from '../../engine/spec/schema.js';
+import type { Spec } from '../../engine/input/schema.js';
 
 const SCENARIO = 'runs/pump-976-gain.yaml';
 const N = 3e12;

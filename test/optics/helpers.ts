@@ -1,5 +1,5 @@
 /** Solved stacks for the optics tests: a spec text at its nominal values, solved with wavefunctions. */
-import { parseSpecText } from '../../engine/spec/load.js';
+import { parseSpecText } from '../../engine/input/load.js';
 import { settingsOf, solveStructure, type SolveResult } from '../../engine/solve.js';
 import { buildStructure, nominalVariables } from '../../engine/structure.js';
 

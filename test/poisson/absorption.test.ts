@@ -9,7 +9,7 @@
  * engine/observables/matrix-elements.ts; coupling factors; and a line under bias.
  */
 import { describe, expect, it } from 'vitest';
-import { parseSpecText } from '../../engine/spec/load.js';
+import { parseSpecText } from '../../engine/input/load.js';
 import { buildStructure } from '../../engine/structure.js';
 import { resolveDoping } from '../../engine/poisson/doping.js';
 import { DEFAULT_SELF_CONSISTENT, selfConsistent } from '../../engine/poisson/selfconsistent.js';

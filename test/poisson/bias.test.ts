@@ -5,10 +5,10 @@
  * the electrons stay in e1 and the stack stays neutral.
  */
 import { describe, expect, it } from 'vitest';
-import { parseSpecText } from '../../engine/spec/load.js';
+import { parseSpecText } from '../../engine/input/load.js';
 import { buildStructure } from '../../engine/structure.js';
 import { settingsOf } from '../../engine/solve.js';
-import type { Spec } from '../../engine/spec/schema.js';
+import type { Spec } from '../../engine/input/schema.js';
 import { atBias, biasPoints } from '../../engine/poisson/bias.js';
 import { resolveDoping } from '../../engine/poisson/doping.js';
 import { dopedOptionsOf, solveDopedStructure } from '../../engine/poisson/doped.js';

@@ -1,15 +1,15 @@
 /**
  * Doping keys (engine/poisson/schema.ts) resolved against a structure: volume densities over a layer
  * or a part of it, delta sheets, a background, totals per unit area, and input errors that name the
- * field. The spec path is exercised on a spec object carrying the keys (what engine/spec/schema.ts
+ * field. The spec path is exercised on a spec object carrying the keys (what engine/input/schema.ts
  * will pass once it declares them); the structure comes from the same stack without them.
  */
 import { describe, expect, it } from 'vitest';
-import { parseSpecText } from '../../engine/spec/load.js';
+import { parseSpecText } from '../../engine/input/load.js';
 import { buildStructure } from '../../engine/structure.js';
 import { dopingOfSpec, hasDoping, parseDopantDensity, resolveDoping } from '../../engine/poisson/doping.js';
 import { layerDopingSchema, dopingSectionSchema } from '../../engine/poisson/schema.js';
-import type { Spec } from '../../engine/spec/schema.js';
+import type { Spec } from '../../engine/input/schema.js';
 import { InputError } from '../../engine/errors.js';
 import { expectClose } from '../observables/close.js';
 

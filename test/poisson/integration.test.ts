@@ -1,12 +1,12 @@
 /**
  * The doped scenarios of runs/ through the public path (spec file → solve / design), once the doping,
- * bias and absorption keys are in engine/spec/schema.ts and the doped solve is wired into solve and
+ * bias and absorption keys are in engine/input/schema.ts and the doped solve is wired into solve and
  * design (the integration lines of issue 15): the 9 µm doped detector's design lands on its window
  * and reports both its e1-e2 line and its absorption peak; the bound-to-continuum scenario is solved
  * at each bias of its sweep.
  */
 import { describe, expect, it } from 'vitest';
-import { loadSpecFile } from '../../engine/spec/load.js';
+import { loadSpecFile } from '../../engine/input/load.js';
 import { findTransition } from '../../engine/solve.js';
 import { solveDoped, type DopedSolveResult } from '../../engine/poisson/doped.js';
 import { design } from '../../engine/design/search.js';

@@ -4,7 +4,7 @@
  * sweep's table; each plot rendered to SVG.
  */
 import { describe, expect, it } from 'vitest';
-import { parseSpecText } from '../../engine/spec/load.js';
+import { parseSpecText } from '../../engine/input/load.js';
 import { buildStructure } from '../../engine/structure.js';
 import { settingsOf } from '../../engine/solve.js';
 import { resolveDoping } from '../../engine/poisson/doping.js';

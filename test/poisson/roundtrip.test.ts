@@ -8,7 +8,7 @@
  */
 import { describe, expect, it } from 'vitest';
 import fc from 'fast-check';
-import { parseSpecText } from '../../engine/spec/load.js';
+import { parseSpecText } from '../../engine/input/load.js';
 import { buildStructure } from '../../engine/structure.js';
 import { settingsOf } from '../../engine/solve.js';
 import { resolveDoping } from '../../engine/poisson/doping.js';

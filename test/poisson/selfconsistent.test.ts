@@ -5,7 +5,7 @@
  * wells, a wide well at 3e12 cm⁻²) converging, per-well neutrality under bias, and holes.
  */
 import { describe, expect, it } from 'vitest';
-import { parseSpecText } from '../../engine/spec/load.js';
+import { parseSpecText } from '../../engine/input/load.js';
 import { buildStructure, type Structure } from '../../engine/structure.js';
 import { settingsOf, solveStructure, DEFAULT_SETTINGS } from '../../engine/solve.js';
 import { resolveDoping, type DopingInput } from '../../engine/poisson/doping.js';

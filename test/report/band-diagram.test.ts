@@ -6,7 +6,7 @@
 import { describe, expect, it } from 'vitest';
 import fc from 'fast-check';
 import { join } from 'node:path';
-import { loadSpecFile, parseSpecText } from '../../engine/spec/load.js';
+import { loadSpecFile, parseSpecText } from '../../engine/input/load.js';
 import { solve, BANDS, type SolveResult } from '../../engine/solve.js';
 import { stateRegions } from '../../objectives/wells.js';
 import { bandDiagramSpec, confiningRange, dosSpec, spreadLabels } from '../../engine/report/plots.js';

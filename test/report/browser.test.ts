@@ -13,7 +13,7 @@ import { pathToFileURL } from 'node:url';
 import { chromium, type Page } from 'playwright-core';
 import { bandDiagramSvg, buildReport, inputFromText, loadReportInput, readCampaign, toleranceReport, campaignSections, type ReportInput } from '../../engine/report/index.js';
 import { figureHtml, pageHtml } from '../../engine/report/html.js';
-import { loadSpecFile, parseSpecText } from '../../engine/spec/load.js';
+import { loadSpecFile, parseSpecText } from '../../engine/input/load.js';
 import { solve } from '../../engine/solve.js';
 import { nominalVariables } from '../../engine/structure.js';
 import { DEFAULT_TOLERANCE } from '../../engine/tolerance/analyse.js';

@@ -6,7 +6,7 @@
  */
 import { beforeAll, describe, expect, it } from 'vitest';
 import { join } from 'node:path';
-import { readCampaign } from '../../engine/report/campaign.js';
+import { readCampaign } from '../../engine/report/campaign-read.js';
 import { bestDesigns, campaignDesignSections, jobCoordinates, offsetCurvesSpec, sweepAxes, variableCurvesSpec } from '../../engine/report/campaign-plots.js';
 import { RunStore } from '../../engine/store/store.js';
 import { referenceRun, tempDir, tinyCampaign, TINY_JOBS } from '../campaign/helpers.js';

@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { parseSpecText } from '../../engine/spec/load.js';
+import { parseSpecText } from '../../engine/input/load.js';
 import { buildStructure, nominalVariables } from '../../engine/structure.js';
 import { growthSheet, parseGrowthRate } from '../../engine/report/growth.js';
 import { growthCsv } from '../../engine/report/growth-csv.js';

@@ -4,7 +4,7 @@ import { mkdtempSync, readFileSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { buildReport, histogram, inputFromText, toleranceReport, yieldText, type ReportInput } from '../../engine/report/index.js';
-import { parseSpecText } from '../../engine/spec/load.js';
+import { parseSpecText } from '../../engine/input/load.js';
 import { nominalVariables } from '../../engine/structure.js';
 import { DEFAULT_TOLERANCE } from '../../engine/tolerance/analyse.js';
 import { cli } from '../../engine/cli/app.js';

@@ -11,7 +11,7 @@ import { describe, expect, it } from 'vitest';
 import fc from 'fast-check';
 import { linearPieceSlices, type BandProfile, type LinearPiece, type OuterRegion, type Slice } from '../../engine/profile.js';
 import { countStatesBelow, solveBand } from '../../engine/solver1d.js';
-import { parseSpecText } from '../../engine/spec/load.js';
+import { parseSpecText } from '../../engine/input/load.js';
 import { buildStructure } from '../../engine/structure.js';
 import { buildBandProfile } from '../../engine/profile.js';
 

@@ -6,7 +6,7 @@
  * unit; the worst sample names the composition errors that made it.
  */
 import { describe, expect, it } from 'vitest';
-import { parseSpecText } from '../../engine/spec/load.js';
+import { parseSpecText } from '../../engine/input/load.js';
 import { nominalVariables } from '../../engine/structure.js';
 import { tolerance, DEFAULT_TOLERANCE } from '../../engine/tolerance/analyse.js';
 import { runSamples } from '../../engine/tolerance/analyse.js';

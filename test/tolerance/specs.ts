@@ -1,6 +1,6 @@
 /** Specs shared by the tolerance tests (invented structures; custom materials make closed forms apply). */
-import { parseSpecText } from '../../engine/spec/load.js';
-import type { Spec } from '../../engine/spec/schema.js';
+import { parseSpecText } from '../../engine/input/load.js';
+import type { Spec } from '../../engine/input/schema.js';
 
 /**
  * A very deep square well of custom materials: 50 eV barriers for both bands, one mass (1 m0)

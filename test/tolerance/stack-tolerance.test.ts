@@ -10,13 +10,13 @@
  */
 import { describe, expect, it } from 'vitest';
 import fc from 'fast-check';
-import { parseSpecText } from '../../engine/spec/load.js';
+import { parseSpecText } from '../../engine/input/load.js';
 import { nominalVariables } from '../../engine/structure.js';
 import { measure, prepareTolerance } from '../../engine/tolerance/measure.js';
 import { sensitivities } from '../../engine/tolerance/sensitivity.js';
 import { runSamples, ensembleSpreads, DEFAULT_TOLERANCE } from '../../engine/tolerance/analyse.js';
 import { drawKeys, type GrowthModel } from '../../engine/tolerance/montecarlo.js';
-import type { Spec } from '../../engine/spec/schema.js';
+import type { Spec } from '../../engine/input/schema.js';
 
 const P = 0.15;
 const onlyMonolayers = (periods: GrowthModel['periods']): GrowthModel => ({ monolayers: { kind: 'table', table: [{ ml: -1, p: P }, { ml: 0, p: 1 - 2 * P }, { ml: 1, p: P }] }, compositionSigma: 0, rateSigmaPercent: 0, periods });

@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { parseSpecText } from '../../engine/spec/load.js';
+import { parseSpecText } from '../../engine/input/load.js';
 import { solve } from '../../engine/solve.js';
 import { HBAR2_OVER_2M0 } from '../../engine/constants.js';
 import { sheetDensity } from '../../engine/observables/carriers.js';

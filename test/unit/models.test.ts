@@ -4,7 +4,7 @@
  * here the check is the wiring, with directions that follow from the forms (closed-form reasoning).
  */
 import { describe, expect, it } from 'vitest';
-import { parseSpecText } from '../../engine/spec/load.js';
+import { parseSpecText } from '../../engine/input/load.js';
 import { buildStructure, DEFAULT_STRUCTURE_MODELS } from '../../engine/structure.js';
 import { findState, solve } from '../../engine/solve.js';
 import { nonparabolicity } from '../../materials/nonparabolicity.js';

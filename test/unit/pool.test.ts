@@ -1,5 +1,5 @@
 import { afterAll, describe, expect, it } from 'vitest';
-import { parseSpecText } from '../../engine/spec/load.js';
+import { parseSpecText } from '../../engine/input/load.js';
 import { readFileSync } from 'node:fs';
 import { designTasks, DEFAULT_DESIGN_OPTIONS } from '../../engine/design/search.js';
 import { closePool, runTasks, threadsPay } from '../../engine/pool.js';

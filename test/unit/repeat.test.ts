@@ -1,5 +1,5 @@
 /**
- * The repeat construct of stacks (engine/spec/schema.ts, engine/structure.ts expandStack): a
+ * The repeat construct of stacks (engine/input/schema.ts, engine/structure.ts expandStack): a
  * repeated stack solves bit-identically to the same layers written out, labels carry the period,
  * per_period variables take one value per period, and errors name the field as written (with its
  * line). The closed-form check here is identity: the same layers must give the same numbers.
@@ -8,7 +8,7 @@ import { mkdtempSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { describe, expect, it } from 'vitest';
-import { parseSpecText } from '../../engine/spec/load.js';
+import { parseSpecText } from '../../engine/input/load.js';
 import { buildStructure, nominalVariables, variablesOf } from '../../engine/structure.js';
 import { solve, BANDS } from '../../engine/solve.js';
 import { designSpec } from '../../engine/design/write.js';

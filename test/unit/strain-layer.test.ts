@@ -6,7 +6,7 @@
  * (from memory: 0.605830 and 0.565325 nm).
  */
 import { describe, expect, it } from 'vitest';
-import { parseSpecText } from '../../engine/spec/load.js';
+import { parseSpecText } from '../../engine/input/load.js';
 import { buildStructure, nominalVariables, variablesOf } from '../../engine/structure.js';
 import { design } from '../../engine/design/search.js';
 import { expectClose } from '../materials/check.js';

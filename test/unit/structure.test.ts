@@ -1,6 +1,6 @@
 import { describe, expect, it } from 'vitest';
 import fc from 'fast-check';
-import { parseSpecText } from '../../engine/spec/load.js';
+import { parseSpecText } from '../../engine/input/load.js';
 import { buildStructure, mixAlloys } from '../../engine/structure.js';
 import { buildBandProfile } from '../../engine/profile.js';
 import { parseFormula, resolveMaterial } from '../../materials/index.js';

@@ -7,7 +7,7 @@
 import { readFileSync } from 'node:fs';
 import { describe, expect, it, vi } from 'vitest';
 import { compileTargets, OBJECTIVES, targetKeys } from '../../objectives/index.js';
-import { campaignJsonSchema, specJsonSchema } from '../../engine/spec/json-schema.js';
+import { campaignJsonSchema, specJsonSchema } from '../../engine/input/json-schema.js';
 import { campaignSchema } from '../../engine/campaign/campaign.js';
 import { targetKinds } from '../../engine/cli/targets.js';
 import { cli } from '../../engine/cli/app.js';

@@ -1,4 +1,4 @@
-import { parseSpecText } from '../../engine/spec/load.js';
+import { parseSpecText } from '../../engine/input/load.js';
 import { buildStructure, nominalVariables, type Structure } from '../../engine/structure.js';
 
 export interface LayerDef {

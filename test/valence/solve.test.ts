@@ -7,7 +7,7 @@
  * (1986), from memory).
  */
 import { describe, expect, it } from 'vitest';
-import { parseSpecText } from '../../engine/spec/load.js';
+import { parseSpecText } from '../../engine/input/load.js';
 import { carriersOf, findTransition, solve, type SolveResult } from '../../engine/solve.js';
 import { buildStructure } from '../../engine/structure.js';
 import { valenceOfSolve } from '../../engine/valence/summary.js';

@@ -5,7 +5,7 @@
  * whole pairs of cells moved e2 of a 9 × 7 nm wire by 0.19 meV between the settings 1 and 0.5 nm).
  */
 import { describe, expect, it } from 'vitest';
-import { parseSpecText } from '../../engine/spec/load.js';
+import { parseSpecText } from '../../engine/input/load.js';
 import { solveWireStructure, wireBox } from '../../engine/wire/solve.js';
 import { buildWireStructure } from '../../engine/wire/structure.js';
 

@@ -3,7 +3,7 @@ import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { describe, expect, it } from 'vitest';
 import { cli } from '../../engine/cli/app.js';
-import { loadSpecFile } from '../../engine/spec/load.js';
+import { loadSpecFile } from '../../engine/input/load.js';
 import { solveWire } from '../../engine/wire/solve.js';
 import { spacingObjective } from '../../objectives/spacing.js';
 import type { SolveResult } from '../../engine/solve.js';

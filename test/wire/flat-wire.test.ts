@@ -6,7 +6,7 @@
 import { describe, expect, it } from 'vitest';
 import type { BandName } from '../../engine/profile.js';
 import { solve } from '../../engine/solve.js';
-import { parseSpecText } from '../../engine/spec/load.js';
+import { parseSpecText } from '../../engine/input/load.js';
 import { solveWire, type WireSolveResult } from '../../engine/wire/solve.js';
 import { buildWireStructure } from '../../engine/wire/structure.js';
 import { expectClose, finiteWellGround } from './helpers.js';

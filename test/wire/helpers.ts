@@ -1,6 +1,6 @@
 /** Shared pieces of the wire tests: a spec built from custom materials, and a tolerance-carrying comparison. */
-import { parseSpecText } from '../../engine/spec/load.js';
-import type { Spec } from '../../engine/spec/schema.js';
+import { parseSpecText } from '../../engine/input/load.js';
+import type { Spec } from '../../engine/input/schema.js';
 
 export { expectClose, finiteWellGround } from '../solver2d/helpers.js';
 

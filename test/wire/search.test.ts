@@ -1,7 +1,7 @@
 /** What a design search needs from a wire: per-band state counts, coarse settings, targets compiled for the wire geometry. */
 import { describe, expect, it } from 'vitest';
 import { InputError } from '../../engine/errors.js';
-import { loadSpecFile } from '../../engine/spec/load.js';
+import { loadSpecFile } from '../../engine/input/load.js';
 import { buildWireStructure } from '../../engine/wire/structure.js';
 import { solveWireStructure } from '../../engine/wire/solve.js';
 import { prepareDesign, searchWireSettings, SEARCH_WIRE_TOLERANCE_EV } from '../../engine/design/problem.js';

@@ -1,6 +1,6 @@
 /** Settings a wire spec cannot apply are input errors naming the key (issue: silently ignored settings). */
 import { describe, expect, it } from 'vitest';
-import { parseSpecText } from '../../engine/spec/load.js';
+import { parseSpecText } from '../../engine/input/load.js';
 
 const wire = (extra: string): string => `
 ${extra}

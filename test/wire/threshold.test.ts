@@ -4,9 +4,9 @@
  * ours), drawn as a t-shape and as a union of two rectangles, with 40 nm and 100 nm arms.
  */
 import { describe, expect, it } from 'vitest';
-import { toJson } from '../../engine/cli/format.js';
+import { toJson } from '../../engine/text.js';
 import { solve, type SolveResult } from '../../engine/solve.js';
-import { parseSpecText } from '../../engine/spec/load.js';
+import { parseSpecText } from '../../engine/input/load.js';
 import { describeWire, wireJson } from '../../engine/wire/describe.js';
 import { solveWire, type WireSolveResult } from '../../engine/wire/solve.js';
 import { buildWireStructure } from '../../engine/wire/structure.js';

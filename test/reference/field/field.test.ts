@@ -5,7 +5,7 @@
  * (D. A. B. Miller et al., Phys. Rev. Lett. 53, 2173 (1984)). Resonances themselves: resonances.test.ts.
  */
 import { describe, expect, it } from 'vitest';
-import { parseSpecText } from '../../../engine/spec/load.js';
+import { parseSpecText } from '../../../engine/input/load.js';
 import { solve, findState, findTransition } from '../../../engine/solve.js';
 import { buildStructure } from '../../../engine/structure.js';
 import { buildBandProfile } from '../../../engine/profile.js';

@@ -7,9 +7,9 @@
  */
 import { describe, expect, it } from 'vitest';
 import fixture from './ecs_resonances.json' with { type: 'json' };
-import { parseSpecText } from '../../../engine/spec/load.js';
+import { parseSpecText } from '../../../engine/input/load.js';
 import { findState, findTransition, solve } from '../../../engine/solve.js';
-import type { Spec } from '../../../engine/spec/schema.js';
+import type { Spec } from '../../../engine/input/schema.js';
 import { HBAR2_OVER_2M0 as C } from '../../../engine/constants.js';
 import { mismatch } from '../../design/check.js';
 

@@ -11,7 +11,7 @@ import fc from 'fast-check';
 import { describe, expect, it } from 'vitest';
 import { buildBandProfile } from '../../../engine/profile.js';
 import { BANDS, settingsOf, solveStructure } from '../../../engine/solve.js';
-import { parseSpecText } from '../../../engine/spec/load.js';
+import { parseSpecText } from '../../../engine/input/load.js';
 import { buildStructure } from '../../../engine/structure.js';
 import { fdSecondOrderShift } from '../../solver1d/fd-reference.js';
 import { layer, outer, profileOf } from '../../solver1d/helpers.js';

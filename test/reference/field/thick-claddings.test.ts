@@ -14,7 +14,7 @@ import { describe, expect, it } from 'vitest';
 import { runSolve } from '../../../engine/cli/solve.js';
 import { EXIT } from '../../../engine/cli/exit.js';
 import { BANDS, settingsOf, solveStructure, type SolveResult } from '../../../engine/solve.js';
-import { parseSpecText } from '../../../engine/spec/load.js';
+import { parseSpecText } from '../../../engine/input/load.js';
 import { buildStructure } from '../../../engine/structure.js';
 
 const specText = (well: string, w: number, barrier: string, clad: number, F: number, nonparabolic: boolean): string => `

@@ -8,13 +8,13 @@ import { describe, expect, it } from 'vitest';
 import fc from 'fast-check';
 import fixture from './two_band_kane.json' with { type: 'json' };
 import { electronProfile, specOf, STRUCTURES, type StructureName } from './structures.js';
-import { parseSpecText } from '../../../engine/spec/load.js';
+import { parseSpecText } from '../../../engine/input/load.js';
 import { buildStructure, nominalVariables } from '../../../engine/structure.js';
 import { buildBandProfile } from '../../../engine/profile.js';
 import { DEFAULT_SETTINGS, settingsOf, solveStructure, type SolveResult } from '../../../engine/solve.js';
 import { intersubbandStates, oscillatorStrength } from '../../../engine/observables/matrix-elements.js';
 import { HBAR2_OVER_2M0 } from '../../../engine/constants.js';
-import type { Spec } from '../../../engine/spec/schema.js';
+import type { Spec } from '../../../engine/input/schema.js';
 import { expectClose } from '../../observables/close.js';
 
 const solved = (spec: Spec): SolveResult => solveStructure(buildStructure(spec, nominalVariables(spec)), settingsOf(spec));

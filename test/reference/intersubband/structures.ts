@@ -5,11 +5,11 @@
  * same band parameters; the test checks that the profiles still equal the ones in the fixture.
  * Scenarios invented for the checks.
  */
-import { parseSpecText } from '../../../engine/spec/load.js';
+import { parseSpecText } from '../../../engine/input/load.js';
 import { buildStructure, nominalVariables } from '../../../engine/structure.js';
 import { buildBandProfile, type BandProfile } from '../../../engine/profile.js';
 import { DEFAULT_SETTINGS } from '../../../engine/solve.js';
-import type { Spec } from '../../../engine/spec/schema.js';
+import type { Spec } from '../../../engine/input/schema.js';
 
 /** A symmetric 10 nm In0.53Ga0.47As well in In0.52Al0.48As, lattice-matched on InP (common practice). */
 export const INGAAS_WELL = `

@@ -16,7 +16,7 @@
  *   standard 980 nm pump-laser active region, from memory: ±15 nm covers the spread of reports).
  */
 import { describe, expect, it } from 'vitest';
-import { parseSpecText } from '../../../engine/spec/load.js';
+import { parseSpecText } from '../../../engine/input/load.js';
 import { buildStructure } from '../../../engine/structure.js';
 import { findTransition, solve } from '../../../engine/solve.js';
 

@@ -9,7 +9,7 @@
  * The detector well: 4.5 nm GaAs doped 1e18 cm⁻³ between 30 nm Al0.3Ga0.7As barriers (e2 just below
  * the barrier edge).
  */
-import { parseSpecText } from '../../../engine/spec/load.js';
+import { parseSpecText } from '../../../engine/input/load.js';
 import { buildStructure, type Structure } from '../../../engine/structure.js';
 import { buildBandProfile } from '../../../engine/profile.js';
 import { resolveDoping, type DopingProfile } from '../../../engine/poisson/doping.js';

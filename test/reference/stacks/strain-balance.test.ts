@@ -11,7 +11,7 @@
 import { readFileSync } from 'node:fs';
 import { describe, expect, it } from 'vitest';
 import { balancingThickness, netStrain, parseFormula, worstStrainRun, zeroStressLattice, alloyAt, type StrainLayer } from '../../../materials/index.js';
-import { parseSpecText } from '../../../engine/spec/load.js';
+import { parseSpecText } from '../../../engine/input/load.js';
 import { buildStructure, nominalVariables } from '../../../engine/structure.js';
 import { solveStructure, settingsOf } from '../../../engine/solve.js';
 import { compileTargets, scoreTargets } from '../../../objectives/index.js';

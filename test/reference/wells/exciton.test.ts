@@ -12,7 +12,7 @@
  *   about 6 meV at 20 nm.
  */
 import { describe, expect, it } from 'vitest';
-import { parseSpecText } from '../../../engine/spec/load.js';
+import { parseSpecText } from '../../../engine/input/load.js';
 import { buildStructure } from '../../../engine/structure.js';
 import { solveStructure, findState, solve, findTransition } from '../../../engine/solve.js';
 import { compileTargets, scoreTargets } from '../../../objectives/index.js';

@@ -6,7 +6,7 @@
 import { describe, expect, it } from 'vitest';
 import fc from 'fast-check';
 import { findTransition, solve, BANDS } from '../../../engine/solve.js';
-import type { Spec } from '../../../engine/spec/schema.js';
+import type { Spec } from '../../../engine/input/schema.js';
 import { dos3d, stepHeight2d } from '../../../engine/observables/dos.js';
 import { fermiLevelForSheetDensity, sheetDensity } from '../../../engine/observables/carriers.js';
 import { mismatch } from '../../design/check.js';

@@ -6,7 +6,7 @@
  */
 import { describe, expect, it } from 'vitest';
 import { findState, findTransition, solve } from '../../../engine/solve.js';
-import type { Spec } from '../../../engine/spec/schema.js';
+import type { Spec } from '../../../engine/input/schema.js';
 import { wellExciton } from '../../../engine/observables/exciton.js';
 import { mismatch } from '../../design/check.js';
 

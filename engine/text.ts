@@ -1,4 +1,8 @@
-/** Plain-text tables and number formatting for the human output of every command. */
+/**
+ * Text of every output, shared by the commands, the HTML report and the files they write: plain-text
+ * tables, number formatting in each unit's one format, JSON with non-finite numbers and its reviver,
+ * spreadsheet-safe CSV lines.
+ */
 
 /** Left-aligns text columns and right-aligns numeric ones; the first row is the header. */
 export function table(header: readonly string[], rows: readonly (readonly string[])[]): string {
@@ -31,6 +35,12 @@ export function toJson(value: unknown): string {
 }
 
 /**
+ * JSON.parse reviver for the non-finite numbers that JSON cannot hold: both toJson and
+ * the run store write them as the strings "Infinity", "-Infinity" and "NaN".
+ */
+export const reviveNumbers = (_k: string, v: unknown): unknown => (v === 'Infinity' ? Infinity : v === '-Infinity' ? -Infinity : v === 'NaN' ? NaN : v);
+
+/**
  * Decimals of each unit wherever a value is printed (tables, reports, messages), so one quantity
  * always reads the same: eV to 0.01 meV, meV to 0.01, nm to 0.01, µm to 0.001, cm⁻¹ to 0.1.
  */
@@ -45,3 +55,23 @@ export const withUnit = (x: number | null | undefined, unit: string): string => 
 
 /** A shift in its unit's one format with its sign ("+0.12"); "–" when not finite. */
 export const signedIn = (x: number, unit: string): string => (Number.isFinite(x) ? `${x >= 0 ? '+' : ''}${inUnit(x, unit)}` : '–');
+
+/** A number with its sign and fixed decimals ("+0.0120"); "–" when not finite. */
+export const signed = (x: number, digits: number): string => (Number.isFinite(x) ? `${x >= 0 ? '+' : ''}${x.toFixed(digits)}` : '–');
+
+/**
+ * A text cell a spreadsheet opens as text, never as a formula. OWASP ASVS 5.0 requirement 1.2.10
+ * (seen): a value whose first character is '=', '+', '-', '@', a tab or NUL is escaped with a single
+ * quote; a leading carriage return is treated the same (common practice). Numbers stay numbers: a
+ * negative value the program wrote is data; only text (labels, names, notes) can carry a formula.
+ */
+export const spreadsheetSafe = (cell: string | number): string | number =>
+  typeof cell === 'string' && /^[=+\-@\t\r\0]/.test(cell) ? `'${cell}` : cell;
+
+/** One CSV line, quoting fields that need it (RFC 4180), every text cell made spreadsheet-safe. */
+export const csvLine = (cells: readonly (string | number)[]): string =>
+  cells.map((c) => {
+    const v = spreadsheetSafe(c);
+    const s = typeof v === 'number' ? (Number.isFinite(v) ? String(v) : '') : v;
+    return /[",\n\r]/.test(s) ? `"${s.replace(/"/g, '""')}"` : s;
+  }).join(',');

@@ -120,7 +120,7 @@ const NAMED_LAYERS = 3;
 
 /**
  * Warnings about a valid spec (see the file comment), each "field: what (line N)". Numbers without
- * a unit are read in their key's default unit (engine/spec/units.ts unitlessNote); thicknesses are
+ * a unit are read in their key's default unit (engine/input/units.ts unitlessNote); thicknesses are
  * gathered into one note.
  */
 export function specWarnings(spec: Spec, locate: (field: string) => number | undefined = () => undefined): string[] {

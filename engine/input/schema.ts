@@ -1,7 +1,7 @@
 /**
  * The spec file's shape (ours). One zod schema is the single source for validation, for the
  * TypeScript types and for the shipped JSON Schema (schema/spec.schema.json). Quantities stay
- * strings with units here; engine/spec/units.ts converts them when the structure is resolved,
+ * strings with units here; engine/input/units.ts converts them when the structure is resolved,
  * so an error can still point at the field the user wrote.
  */
 import { z } from 'zod';

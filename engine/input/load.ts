@@ -16,7 +16,7 @@ export interface LoadedSpec {
   readonly origin: string;
   /** 1-based line of a field path such as "stack[2].thickness", when the source has lines. */
   readonly locate: (field: string) => number | undefined;
-  /** Notes on what the spec may not mean as written (engine/spec/check.ts specWarnings), each with its field and line. */
+  /** Notes on what the spec may not mean as written (engine/input/check.ts specWarnings), each with its field and line. */
   readonly warnings: readonly string[];
 }
 
@@ -48,7 +48,7 @@ function locator(doc: Document, lines: LineCounter): (field: string) => number |
 /**
  * Validates an already-parsed value (e.g. from a library caller): the schema (up to
  * LISTED_PROBLEMS problems named in one message), then what the schema cannot see — targets that
- * can never be evaluated, variables no layer uses (engine/spec/check.ts).
+ * can never be evaluated, variables no layer uses (engine/input/check.ts).
  */
 export function validateSpec(value: unknown, locate: (field: string) => number | undefined = () => undefined): Spec {
   const r = specSchema.safeParse(value, { reportInput: true });
