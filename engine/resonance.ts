@@ -38,7 +38,7 @@
  */
 import { HBAR2_OVER_2M0 } from './constants.js';
 import type { BandProfile } from './profile.js';
-import { MASS_FLOOR, requireFlat, twoBandFactor, unpack, type Unpacked } from './solver1d.js';
+import { MASS_FLOOR, requireFlat, twoBandFactor, unpack, type Unpacked } from './solver1d/slices.js';
 
 const C = HBAR2_OVER_2M0;
 

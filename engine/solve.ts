@@ -5,7 +5,9 @@
  */
 import { HC_EV_NM, wavenumberPerCm } from './constants.js';
 import { buildBandProfile, isPiecewiseConstant, type BandName, type BandProfile } from './profile.js';
-import { countStatesBelow, solveBand, twoBandFactor, wavefunction } from './solver1d.js';
+import { twoBandFactor } from './solver1d/slices.js';
+import { countStatesBelow, solveBand } from './solver1d/states.js';
+import { wavefunction } from './solver1d/wavefunction.js';
 import { followResonance, resonanceWavefunction, resonanceWidth, siegertPole, type Pole } from './resonance.js';
 import { buildStructure, nominalVariables, PARAMETER_SET, type Structure } from './structure.js';
 import type { Spec } from './input/schema.js';
@@ -34,7 +36,7 @@ export interface SolverSettings {
   /**
    * Largest flat slice (nm) under a field or in graded layers: resonances are Richardson-extrapolated
    * over it and its half, and wavefunctions sampled on the finer; bound-state energies come from
-   * linear slices (Airy functions, engine/solver1d.ts) and do not depend on it.
+   * linear slices (Airy functions, engine/solver1d/states.ts) and do not depend on it.
    */
   readonly slice_nm: number;
   /** Upper limit on states per band (Infinity: all bound states, or the lowest DEFAULT_STATE_LIMIT of a band holding more). */

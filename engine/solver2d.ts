@@ -84,7 +84,7 @@ function validate(grid: CrossSectionGrid, count: number): void {
     }
   }
   if (grid.alpha !== undefined) {
-    // As in engine/solver1d.ts: the two-band mass must stay positive for every energy a state of the grid can have, [min V, max V].
+    // As in engine/solver1d/slices.ts: the two-band mass must stay positive for every energy a state of the grid can have, [min V, max V].
     for (let k = 0; k < n; k++) {
       const a = grid.alpha[k];
       if (!(Number.isFinite(a) && Math.min(1 + a * (vmin - grid.V[k]), 1 + a * (vmax - grid.V[k])) > 0)) {

@@ -8,7 +8,8 @@
 import { HBAR2_OVER_2M0 } from '../constants.js';
 import { failBadValue } from '../errors.js';
 import type { BandProfile } from '../profile.js';
-import { twoBandFactor, wavefunction } from '../solver1d.js';
+import { twoBandFactor } from '../solver1d/slices.js';
+import { wavefunction } from '../solver1d/wavefunction.js';
 
 const fail = failBadValue;
 

@@ -24,7 +24,7 @@ import type { HoleDispersion } from '../observables/carriers.js';
 import { weightedGrid } from '../observables/matrix-elements.js';
 import { buildBandProfile, type BandProfile } from '../profile.js';
 import type { SolveResult } from '../solve.js';
-import { twoBandFactor } from '../solver1d.js';
+import { twoBandFactor } from '../solver1d/slices.js';
 import { wellLayerIndices } from '../structure.js';
 import { valenceSubbands } from '../valence/dispersion.js';
 import { angularQuadrature, holeDispersion } from '../valence/dos.js';

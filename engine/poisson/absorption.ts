@@ -42,7 +42,9 @@
  */
 import { HBAR2_OVER_2M0, HC_EV_NM, KB_EV_PER_K } from '../constants.js';
 import type { BandProfile, Slice } from '../profile.js';
-import { countStatesBelow, solveBand, twoBandFactor, wavefunction } from '../solver1d.js';
+import { twoBandFactor } from '../solver1d/slices.js';
+import { countStatesBelow, solveBand } from '../solver1d/states.js';
+import { wavefunction } from '../solver1d/wavefunction.js';
 import { SHEET_CM2_TO_NM2 } from './doping.js';
 import { subbandFilling } from './occupation.js';
 import { E_OVER_EPS0_V_NM, type PoissonMesh } from './poisson.js';

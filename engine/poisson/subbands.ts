@@ -7,13 +7,15 @@
  * between its grade samples) plus U(z), so every later step (fields, resonances, wavefunctions,
  * transitions, plots) reads the folded Structure like any other. Inside the loop the carriers'
  * profiles are built straight from the structure and U (potentialProfile): flat slices per mesh
- * element at the mean of its two nodes, on which the solver (engine/solver1d.ts) finds the bound
+ * element at the mean of its two nodes, on which the solver (engine/solver1d/states.ts) finds the bound
  * states exactly.
  * Units: eV, nm, m0.
  */
 import { HBAR2_OVER_2M0 } from '../constants.js';
 import type { BandName, BandProfile, OuterRegion, Slice } from '../profile.js';
-import { countStatesBelow, solveBand, twoBandFactor, wavefunction } from '../solver1d.js';
+import { twoBandFactor } from '../solver1d/slices.js';
+import { countStatesBelow, solveBand } from '../solver1d/states.js';
+import { wavefunction } from '../solver1d/wavefunction.js';
 import type { LayerBands, ResolvedLayer, Structure } from '../structure.js';
 import type { PoissonMesh } from './poisson.js';
 

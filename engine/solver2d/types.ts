@@ -31,7 +31,7 @@ export interface CrossSectionGrid {
   readonly massY?: Float64Array;
   /**
    * Non-parabolicity α (1/eV) at the nodes: both masses become m(E) = m·(1 + α(E − V)) (two-band
-   * form, as in engine/solver1d.ts) and each state's energy solves E = λ(H(E)). Absent: parabolic.
+   * form, as in engine/solver1d/slices.ts) and each state's energy solves E = λ(H(E)). Absent: parabolic.
    */
   readonly alpha?: Float64Array;
 }

@@ -17,7 +17,7 @@
  * abrupt interface (left momentum matrix element with the left k), and, unlike the symmetrised
  * ordering {γ3, k_z}/2, it keeps the interface term that couples heavy and light holes at k∥ ≠ 0 in
  * the asymmetric form the theory gives; at k∥ = 0 both reduce to −d/dz (1/m) d/dz, i.e. ψ and ψ′/m
- * continuous, exactly the single-band BenDaniel–Duke condition of engine/solver1d.ts.
+ * continuous, exactly the single-band BenDaniel–Duke condition of engine/solver1d/slices.ts.
  *
  * Band edges: the strained edges of the structure enter as a diagonal (X, Y, Z) term
  * diag(u, u, w) that puts |3/2, ±3/2⟩ at u = E_hh. In the 4×4 model w = (3E_lh − E_hh)/2 puts

@@ -14,7 +14,7 @@
 import { HC_EV_NM, wavenumberPerCm } from '../constants.js';
 import { InputError } from '../errors.js';
 import type { BandName, BandProfile } from '../profile.js';
-import { solveBand } from '../solver1d.js';
+import { solveBand } from '../solver1d/states.js';
 import type { Spec } from '../input/schema.js';
 import type { TransitionResult } from '../solve.js';
 import { nominalVariables, PARAMETER_SET } from '../structure.js';
@@ -182,7 +182,7 @@ export function bandMaterial(m: WireMaterial, band: BandName, nonparabolic: bool
 
 /**
  * Lowest level (particle sense, eV) of a parent well: the part's material, `thickness` across it,
- * in the barrier material, solved exactly by the 1-D transfer solver (engine/solver1d.ts) with the
+ * in the barrier material, solved exactly by the 1-D transfer solver (engine/solver1d/states.ts) with the
  * masses across it (massY when it lies along y, else mass) and the same α. The cross-section
  * energies it is compared with are Richardson-extrapolated to zero grid spacing, i.e. estimates
  * of the same continuum equation this solves exactly; undefined when the part binds nothing.

@@ -14,7 +14,7 @@ import { runStart, type StartOutcome } from '../../engine/design/start.js';
 import { evaluateDesign, prepareDesign, valuesOf } from '../../engine/design/problem.js';
 import { resolveMaterialCached } from '../../engine/material-cache.js';
 import { buildBandProfile as profileOf } from '../../engine/profile.js';
-import { solveBand } from '../../engine/solver1d.js';
+import { solveBand } from '../../engine/solver1d/states.js';
 import { sampleCrossSection, solveCrossSectionConverged } from '../../engine/solver2d.js';
 import { readFileSync } from 'node:fs';
 import { loadSpecFile } from '../../engine/input/load.js';

@@ -17,7 +17,7 @@ import { couplingFactor, DEFAULT_ABSORPTION, intersubbandAbsorption, type Absorp
 import { poissonMesh, E_OVER_EPS0_V_NM } from '../../engine/poisson/poisson.js';
 import { potentialProfile } from '../../engine/poisson/subbands.js';
 import { intersubbandStates } from '../../engine/observables/matrix-elements.js';
-import { solveBand } from '../../engine/solver1d.js';
+import { solveBand } from '../../engine/solver1d/states.js';
 import type { BandProfile } from '../../engine/profile.js';
 import { HBAR2_OVER_2M0 as C } from '../../engine/constants.js';
 import { modulationCase } from '../reference/poisson/structures.js';

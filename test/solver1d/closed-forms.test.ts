@@ -4,7 +4,7 @@
 
 import { describe, expect, it } from 'vitest';
 import { HBAR2_OVER_2M0 as C } from '../../engine/constants.js';
-import { solveBand } from '../../engine/solver1d.js';
+import { solveBand } from '../../engine/solver1d/states.js';
 import { layer, message, midpointSlices, near, outer, profileOf, rootsOf } from './helpers.js';
 
 const energies = (s: { states: readonly { energy: number }[] }): number[] => s.states.map((x) => x.energy);

@@ -5,7 +5,7 @@
 
 import fc from 'fast-check';
 import { describe, expect, it } from 'vitest';
-import { solveBand } from '../../engine/solver1d.js';
+import { solveBand } from '../../engine/solver1d/states.js';
 import { stackArb } from './arbitraries.js';
 import { fdEigenvalues, fdExtrapolated } from './fd-reference.js';
 import { layer, message, near, outer, profileOf } from './helpers.js';

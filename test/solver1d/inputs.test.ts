@@ -4,7 +4,8 @@
 
 import { describe, expect, it } from 'vitest';
 import { InputError } from '../../engine/errors.js';
-import { countStatesBelow, solveBand, wavefunction } from '../../engine/solver1d.js';
+import { countStatesBelow, solveBand } from '../../engine/solver1d/states.js';
+import { wavefunction } from '../../engine/solver1d/wavefunction.js';
 import { layer, outer, profileOf } from './helpers.js';
 
 const well = profileOf([layer(8, 0, 0.067)], outer(0.3, 0.092));

@@ -10,7 +10,7 @@ import { readFileSync } from 'node:fs';
 import { describe, expect, it } from 'vitest';
 import fc from 'fast-check';
 import { linearPieceSlices, type BandProfile, type LinearPiece, type OuterRegion, type Slice } from '../../engine/profile.js';
-import { countStatesBelow, solveBand } from '../../engine/solver1d.js';
+import { countStatesBelow, solveBand } from '../../engine/solver1d/states.js';
 import { parseSpecText } from '../../engine/input/load.js';
 import { buildStructure } from '../../engine/structure.js';
 import { buildBandProfile } from '../../engine/profile.js';

@@ -10,7 +10,7 @@ import { describe, expect, it } from 'vitest';
 import { HBAR2_OVER_2M0 as C } from '../../engine/constants.js';
 import { buildBandProfile } from '../../engine/profile.js';
 import { ALLOWED_OVERLAP2, DEFAULT_STATE_LIMIT, LIMITED_TRANSITION_STATES, settingsOf, solveStructure } from '../../engine/solve.js';
-import { countStatesBelow } from '../../engine/solver1d.js';
+import { countStatesBelow } from '../../engine/solver1d/states.js';
 import { parseSpecText } from '../../engine/input/load.js';
 import { buildStructure } from '../../engine/structure.js';
 

@@ -5,7 +5,8 @@
 import fc from 'fast-check';
 import { describe, expect, it } from 'vitest';
 import { HBAR2_OVER_2M0 as C } from '../../engine/constants.js';
-import { countStatesBelow, solveBand, wavefunction } from '../../engine/solver1d.js';
+import { countStatesBelow, solveBand } from '../../engine/solver1d/states.js';
+import { wavefunction } from '../../engine/solver1d/wavefunction.js';
 import type { BandProfile } from '../../engine/profile.js';
 import { reversed, shifted, stackArb, stackWidth } from './arbitraries.js';
 import { layer, message, near, outer, profileOf, signChanges, trapezoid, uniformGrid } from './helpers.js';

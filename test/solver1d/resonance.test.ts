@@ -6,7 +6,8 @@
 import { describe, expect, it } from 'vitest';
 import { HBAR2_OVER_2M0 as C } from '../../engine/constants.js';
 import { resonanceWavefunction, resonanceWidth, siegertPole } from '../../engine/resonance.js';
-import { solveBand, wavefunction } from '../../engine/solver1d.js';
+import { solveBand } from '../../engine/solver1d/states.js';
+import { wavefunction } from '../../engine/solver1d/wavefunction.js';
 import { layer, message, outer, profileOf, trapezoid, uniformGrid } from './helpers.js';
 
 /** Complex numbers as [re, im] for the test's own analytic condition. */
