@@ -129,7 +129,7 @@ export function spreadLabels(want: readonly number[], gap: number, height: numbe
   return out;
 }
 
-/** The conduction and valence panels: each band group's extremum to its continuum edge, padded, and every drawn state inside. */
+/** The conduction and valence panels: each band group's extremum to its continuum edge, padded, and every drawn point (levels, |ψ|² curves) inside. */
 function panelsOf(r: SolveResult, drawn: Readonly<Record<BandName, { E: number }[]>>): Panel[] {
   const groups: { bands: BandName[]; title: string }[] = [{ bands: ['electron'], title: 'electron energy (eV)' }, { bands: ['heavy_hole', 'light_hole'], title: 'hole energy (eV)' }];
   return groups.map(({ bands, title }) => {
@@ -163,7 +163,9 @@ export function bandDiagramSpec(r: SolveResult, options: { readonly width?: numb
   const domain = [range.from, range.to + 0.12 * span];
   const pxPerNm = width / (domain[1]! - domain[0]!);
   const drawnCurves = Object.fromEntries(BANDS.map((b) => [b, stateCurves(r, b, range.from, range.to)])) as Record<BandName, ReturnType<typeof stateCurves>>;
-  const panels = panelsOf(r, { electron: drawnCurves.electron.states, heavy_hole: drawnCurves.heavy_hole.states, light_hole: drawnCurves.light_hole.states });
+  // Levels and their |ψ|² curves both inside: a state at the barrier edge draws its curve above it.
+  const extent = (b: BandName): { E: number }[] => [...drawnCurves[b].states, ...drawnCurves[b].curves];
+  const panels = panelsOf(r, { electron: extent('electron'), heavy_hole: extent('heavy_hole'), light_hole: extent('light_hole') });
   const interfaces: { z: number }[] = [];
   const layerLabels: { z: number; label: string }[] = [];
   let z = 0;

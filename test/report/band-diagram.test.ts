@@ -57,6 +57,13 @@ describe('band diagram', () => {
     for (const E of [r.bands.electron.edge_eV, barrier, ...r.bands.electron.states.map((s) => s.energy_eV)]) expect(E > lo! && E < hi!, `${E} in [${lo}, ${hi}]`).toBe(true);
     const [vlo, vhi] = domainOf(vb!);
     for (const b of ['heavy_hole', 'light_hole'] as const) for (const E of [r.bands[b].edge_eV, r.bands[b].barrier_eV]) expect(E > vlo! && E < vhi!).toBe(true);
+    // Every point drawn (edges, continuum, |ψ|² curves, leaders) inside its panel: e2 at the barrier
+    // edge draws its curve above the edge, which an earlier diagram cut off at the panel's top.
+    for (const [layers, [a, b]] of [[cb!, [lo!, hi!]], [vb!, [vlo!, vhi!]]] as const) {
+      const drawn = layers.filter((l) => l.mark?.type === 'line').flatMap((l) => l.data!.values.map((v) => v.E as number));
+      const outside = drawn.filter((E) => !(E >= a && E <= b));
+      expect(outside, `points outside [${a}, ${b}] eV`).toEqual([]);
+    }
     // 230 px tall: e2 at 9.5 meV below the edge is about 7 px from it (the earlier full-range diagram put it 2 px away).
     const px = (230 * (barrier - r.bands.electron.states[1]!.energy_eV)) / (hi! - lo!);
     expect(px, `e2 to barrier edge: ${px.toFixed(1)} px`).toBeGreaterThan(5);
