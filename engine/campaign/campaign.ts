@@ -11,7 +11,8 @@ import { dirname, extname, resolve } from 'node:path';
 import { z } from 'zod';
 import { InputError } from '../errors.js';
 import { DEFAULT_DESIGN_OPTIONS, type DesignOptions } from '../design/search.js';
-import { describeIssue, fieldName, fieldPath, parseYamlText, readInputText, validateSpec } from '../input/load.js';
+import { fieldPath, parseYamlText, readInputText, validateSpec } from '../input/load.js';
+import { describeIssues } from '../input/issues.js';
 import type { Spec } from '../input/schema.js';
 import { splitQuantity } from '../input/units.js';
 
@@ -72,6 +73,8 @@ export interface Campaign {
   readonly jobs: readonly Job[];
   /** sha256 (16 hex) over the job hashes in order: shard stores of one campaign share it. */
   readonly hash: string;
+  /** Notes on what the file may not mean as written (a range whose end is off its step grid), each starting with its field. */
+  readonly warnings: readonly string[];
 }
 
 /** JSON with object keys sorted, so equal values hash equally whatever their key order. */
@@ -89,15 +92,31 @@ export const hash16 = (text: string): string => createHash('sha256').update(text
 interface AxisValue { readonly label: string; readonly value: unknown }
 interface Axis { readonly path: string; readonly name: string; readonly values: readonly AxisValue[] }
 
-/** Range values, rounded to 12 significant digits so 1300 + 3·10 is written "1330", not "1330.0000000000002". */
-function expandRange(path: string, r: z.infer<typeof range>): unknown[] {
+/** Rounded to 12 significant digits so 1300 + 3·10 is written "1330", not "1330.0000000000002". */
+const tidy = (x: number): number => Number(x.toPrecision(12));
+
+/** How far (in steps) a range's end may lie off a whole number of steps and still count as on the grid: decimal-to-binary residue, far below any step a user means. */
+const GRID_TOLERANCE = 1e-6;
+
+/**
+ * A range's values from `from` in steps of `step` up to `to`; an end that is not on the step grid
+ * (940…1000 nm step 25 stops at 990 nm) adds a warning that names the last value and the two ends
+ * on the grid around `to`.
+ */
+function expandRange(path: string, r: z.infer<typeof range>, warnings: string[]): unknown[] {
   const [from, to, step] = [r.from, r.to, r.step].map(splitQuantity);
   if (!from || !to || !step) throw new InputError('bad-value', `sweep.${path}: from, to and step must be numbers or quantities such as "1300 nm", got ${JSON.stringify(r)}`);
   if (from.unit !== to.unit || from.unit !== step.unit) throw new InputError('bad-value', `sweep.${path}: from, to and step must share one unit, got "${from.unit}", "${to.unit}", "${step.unit}"; write them in the same unit`);
-  const n = Math.floor((to.value - from.value) / step.value + 1e-9) + 1;
+  const steps = (to.value - from.value) / step.value;
+  const n = Math.floor(steps + GRID_TOLERANCE) + 1;
   if (!(step.value > 0) || !(n >= 1) || n > MAX_JOBS) throw new InputError('bad-value', `sweep.${path}: needs step > 0 and from ≤ to (at most ${MAX_JOBS} values), got from ${r.from}, to ${r.to}, step ${r.step}`);
+  const text = (x: number): string => `${tidy(x)}${from.unit ? ` ${from.unit}` : ''}`;
+  if (steps - (n - 1) > GRID_TOLERANCE) {
+    const last = from.value + (n - 1) * step.value;
+    warnings.push(`sweep.${path}: the range from ${text(from.value)} to ${text(to.value)} in steps of ${text(step.value)} ends at ${text(last)}, short of ${text(to.value)}, which is not on the step grid; write to: ${text(last)} or to: ${text(last + step.value)}, or pick a step that divides ${text(to.value - from.value)}`);
+  }
   return Array.from({ length: n }, (_, k) => {
-    const v = Number((from.value + k * step.value).toPrecision(12));
+    const v = tidy(from.value + k * step.value);
     return from.unit === '' && typeof r.from === 'number' ? v : `${v} ${from.unit}`.trim();
   });
 }
@@ -137,8 +156,9 @@ function jobOptions(file: CampaignFile): JobOptions {
 
 /** Expands a validated campaign into its jobs (Cartesian product of the axes, last axis fastest). */
 export function expandCampaign(file: CampaignFile, baseSpec: unknown, origin: string, locate: (field: string) => number | undefined = () => undefined): Campaign {
+  const warnings: string[] = [];
   const axes: Axis[] = Object.entries(file.sweep).map(([path, v]) => {
-    const values = Array.isArray(v) ? v : expandRange(path, v);
+    const values = Array.isArray(v) ? v : expandRange(path, v, warnings);
     return { path, name: axisName(path), values: values.map((value, k) => ({ value, label: labelOf(value, k) })) };
   });
   // Counted before anything is expanded: the product grows faster than any one axis.
@@ -179,7 +199,20 @@ export function expandCampaign(file: CampaignFile, baseSpec: unknown, origin: st
     }
     return { index, name, kind: file.kind, spec: valid, options, hash: hash16(canonicalJson({ kind: file.kind, spec: valid, options })) };
   });
-  return { title: file.title ?? origin, origin, jobs, hash: hash16(jobs.map((j) => `${j.name}:${j.hash}`).join('\n')) };
+  return { title: file.title ?? origin, origin, jobs, hash: hash16(jobs.map((j) => `${j.name}:${j.hash}`).join('\n')), warnings };
+}
+
+/**
+ * A union's issues taken from the one branch whose type the value has (a mapping under a sweep
+ * key is a range, not a list), with their full paths, so a misspelt range key is named as such;
+ * unknown keys first, since they explain the keys then missing. Other issues are kept as they are.
+ */
+function branchIssues(issue: z.core.$ZodIssue): z.core.$ZodIssue[] {
+  if (issue.code !== 'invalid_union') return [issue];
+  const fitting = issue.errors.filter((b) => !b.some((i) => i.code === 'invalid_type' && i.path.length === 0));
+  if (fitting.length !== 1) return [issue];
+  const inner = fitting[0]!.flatMap((i) => branchIssues({ ...i, path: [...issue.path, ...i.path] } as z.core.$ZodIssue));
+  return [...inner.filter((i) => i.code === 'unrecognized_keys'), ...inner.filter((i) => i.code !== 'unrecognized_keys')];
 }
 
 
@@ -188,10 +221,8 @@ export function parseCampaignText(text: string, origin: string, dir: string): Ca
   const { value, locate } = parseYamlText(text, origin);
   const r = campaignSchema.safeParse(value ?? {}, { reportInput: true });
   if (!r.success) {
-    const issue = r.error.issues[0]!;
-    const field = issue.code === 'unrecognized_keys' ? fieldName([...issue.path, issue.keys[0] as string]) : fieldName(issue.path);
-    const line = locate(field);
-    throw new InputError('schema', `${origin}: ${describeIssue(issue).replace('the spec schema (schema/spec.schema.json)', 'the campaign keys (title, kind, spec, design, sweep)')}${line ? ` (line ${line})` : ''}`, field);
+    const { text, field } = describeIssues(r.error.issues.flatMap(branchIssues), { schema: campaignSchema, reference: 'the campaign schema (schema/campaign.schema.json)', locate });
+    throw new InputError('schema', `${origin}: ${text}`, field);
   }
   if (typeof r.data.spec === 'string') {
     const specPath = resolve(dir, r.data.spec);

@@ -31,10 +31,26 @@ export interface CampaignProgress {
   readonly bestJob: string;
 }
 
+/** A job this run finished (done or failed), for a log line per job. */
+export interface JobEnd {
+  readonly job: string;
+  /** Jobs of the shard finished so far, this one and those finished before this run included; of jobsTotal. */
+  readonly jobsDone: number;
+  readonly jobsTotal: number;
+  readonly state: 'done' | 'failed';
+  /** Design status of a done job ('ok', 'infeasible', …); the error message of a failed one. */
+  readonly status: string;
+  /** Loss of the job's best design; Infinity when it has none. */
+  readonly loss: number;
+  /** Wall time of this run's work on the job (s). */
+  readonly seconds: number;
+}
+
 export interface RunOptions {
   readonly workers: number;
   readonly shard: Shard;
   readonly onProgress?: (p: CampaignProgress) => void;
+  readonly onJobEnd?: (end: JobEnd) => void;
   /** Polled at every checkpoint; true stops the run there. */
   readonly shouldStop?: () => boolean;
   /** Re-queue this shard's failed jobs (keeping their stored starts) before running. */
@@ -96,6 +112,8 @@ export async function runCampaign(campaign: Campaign, store: RunStore, options: 
     if (store.job(job.name)!.state !== 'queued') continue;
     if (stop()) return summary('stopped');
     store.markRunning(job.name);
+    const began = performance.now();
+    let end: Pick<JobEnd, 'state' | 'status' | 'loss'>;
     try {
       const tasks = designTasks(job.spec, job.options);
       const have = new Set(store.outcomes(job.name).map((o) => o.index));
@@ -117,8 +135,9 @@ export async function runCampaign(campaign: Campaign, store: RunStore, options: 
           if (stop()) throw new Stopped();
         },
       });
-      const outcomes = store.outcomes(job.name);
-      store.finishJob(job.name, rankDesigns(job.spec, outcomes, job.options));
+      const ranked = rankDesigns(job.spec, store.outcomes(job.name), job.options);
+      store.finishJob(job.name, ranked);
+      end = { state: 'done', status: ranked.status, loss: ranked.designs[0]?.loss ?? Infinity };
     } catch (e) {
       if (e instanceof Stopped) {
         store.requeueStale();
@@ -136,9 +155,11 @@ export async function runCampaign(campaign: Campaign, store: RunStore, options: 
       const message = isInputError(e) ? e.message : `internal error: ${e instanceof Error ? e.message : String(e)}`;
       store.failJob(job.name, message);
       failed.push({ job: job.name, message });
+      end = { state: 'failed', status: message, loss: Infinity };
     }
     ran++;
     jobsDone++;
+    options.onJobEnd?.({ job: job.name, jobsDone, jobsTotal: jobs.length, ...end, seconds: (performance.now() - began) / 1000 });
     report(job.name, 0, 0);
   }
   return summary('complete');

@@ -1,21 +1,22 @@
 /**
  * `wellsmith campaign FILE`: runs (or resumes) a campaign's jobs into the run store of --out,
  * optionally one shard of them, or writes Slurm scripts for the whole campaign. SIGINT/SIGTERM stop
- * the run at the next checkpoint (the next finished start) and exit 128 + signal number.
+ * the run at the next checkpoint (the next finished start) and exit 128 + signal number. Progress
+ * is a bar on a terminal and, when stderr is a log file, a timestamped line per finished job.
  */
 import { chmodSync } from 'node:fs';
 import { basename, dirname, extname, join, resolve } from 'node:path';
 import { loadCampaignFile, type Campaign } from '../campaign/campaign.js';
 import { isSpecFile, parseYamlText, readInputText } from '../input/load.js';
 import { designsCsv } from '../campaign/export.js';
-import { runCampaign, type RunSummary, type Shard } from '../campaign/run.js';
+import { runCampaign, type JobEnd, type RunSummary, type Shard } from '../campaign/run.js';
 import { slurmScripts } from '../campaign/slurm.js';
 import { InputError } from '../errors.js';
 import { RunStore, StoreError } from '../store/store.js';
 import { EXIT, failure, success, type Outcome } from './exit.js';
 import { sig, table, toJson } from '../text.js';
 import { ensureFolder, writeFileAtomic } from './output.js';
-import { progressBar } from './progress.js';
+import { progressBar, progressLog } from './progress.js';
 
 export interface CampaignArgs {
   readonly file: string;
@@ -61,7 +62,7 @@ function writeSlurm(campaign: Campaign, file: string, out: string, shards: numbe
     writeFileAtomic(join(dir, 'slurm', name), text);
     chmodSync(join(dir, 'slurm', name), 0o755);
   }
-  return success(`${campaign.jobs.length} jobs in ${shards} shards; scripts in ${join(dir, 'slurm')}\nsubmit with: ${join(dir, 'slurm', 'submit.sh')}\n`);
+  return success(`${campaign.jobs.length} jobs in ${shards} shards; scripts in ${join(dir, 'slurm')}\nsubmit with: ${join(dir, 'slurm', 'submit.sh')}\n`, EXIT.ok, campaign.warnings);
 }
 
 function describe(store: RunStore, summary: RunSummary, shard: Shard): string {
@@ -81,16 +82,21 @@ function describe(store: RunStore, summary: RunSummary, shard: Shard): string {
 }
 
 /** The machine-readable form: the run summary and every job with its ranked designs' values and losses. */
-function campaignJson(store: RunStore, summary: RunSummary): string {
+function campaignJson(store: RunStore, summary: RunSummary, warnings: readonly string[]): string {
   const jobs = store.jobs().map((j) => ({
     name: j.name, index: j.idx, state: j.state, status: j.status, message: j.message,
     designs: store.designs(j.name).map((d) => ({ rank: d.rank, loss: d.loss, satisfied: d.satisfied === 1, values: JSON.parse(d.values_json) as unknown })),
   }));
-  return toJson({ store: store.path, summary, jobs });
+  return toJson({ store: store.path, summary, jobs, warnings });
 }
+
+/** A finished job as a log line says it: "job 12/40 done (wavelength=960nm) in 3.1 s · ok · best loss 2.1e-4 · 28 to go". */
+const jobEndText = (e: JobEnd): string =>
+  `job ${e.jobsDone}/${e.jobsTotal} ${e.state} (${e.job}) in ${sig(e.seconds, 2)} s · ${e.state === 'done' ? `${e.status} · best loss ${sig(e.loss, 3)}` : e.status} · ${e.jobsTotal - e.jobsDone} to go`;
 
 export async function runCampaignCommand(args: CampaignArgs): Promise<Outcome> {
   const bar = progressBar('campaign');
+  const log = progressLog('campaign');
   let signal: NodeJS.Signals | undefined;
   const onSignal = (s: NodeJS.Signals): void => { signal ??= s; };
   let store: RunStore | undefined;
@@ -117,13 +123,15 @@ export async function runCampaignCommand(args: CampaignArgs): Promise<Outcome> {
       retryFailed: args.retryFailed ?? false,
       shouldStop: () => signal !== undefined,
       onProgress: (p) => bar.update(p.jobsDone, p.jobsTotal, `${p.job} start ${p.startsDone}/${p.startsTotal} · best loss ${sig(p.bestLoss, 3)}${p.bestJob ? ` (${p.bestJob})` : ''}`),
+      onJobEnd: (e) => log.finished(e.jobsDone, e.jobsTotal, jobEndText(e)),
     });
     bar.stop();
     if (summary.status === 'stopped') {
-      return { code: 128 + (signal === 'SIGTERM' ? 15 : 2), stdout: '', stderr: `wellsmith: campaign stopped by ${signal ?? 'request'} after the last finished start; every finished start is stored in ${store.path}. Resume with: ${resume}\n` };
+      const stopped = success('', 128 + (signal === 'SIGTERM' ? 15 : 2), campaign.warnings);
+      return { ...stopped, stderr: `${stopped.stderr}wellsmith: campaign stopped by ${signal ?? 'request'} after the last finished start; every finished start is stored in ${store.path}. Resume with: ${resume}\n` };
     }
     if (args.export === 'csv') writeFileAtomic(join(out, 'designs.csv'), designsCsv(store));
-    return success(`${args.json ? campaignJson(store, summary) : describe(store, summary, shard)}\n`, summary.failedStored.length > 0 ? EXIT.physics : EXIT.ok);
+    return success(`${args.json ? campaignJson(store, summary, campaign.warnings) : describe(store, summary, shard)}\n`, summary.failedStored.length > 0 ? EXIT.physics : EXIT.ok, campaign.warnings);
   } catch (e) {
     bar.stop();
     // The run stopped on its machine (disk full, I/O error): nothing is lost, the same command resumes.

@@ -12,7 +12,7 @@ import { InputError } from '../errors.js';
 import { EXIT, failure, success, type Outcome } from './exit.js';
 import { csvLine, fixed, sig, table, toJson, withUnit } from '../text.js';
 import { ensureFolder, writeFileAtomic } from './output.js';
-import { noteLongWork, progressBar } from './progress.js';
+import { LOG_INTERVAL_MS, noteLongWork, PROGRESS_DELAY_MS, progressBar, progressLog } from './progress.js';
 import { targetsSummary } from './targets.js';
 import { solveJson } from './solve.js';
 import { describeRobust, robustJson } from './tolerance.js';
@@ -130,6 +130,8 @@ function evaluationSeconds(spec: Spec): number {
 export async function runDesign(args: DesignArgs): Promise<Outcome> {
   let locate: ((f: string) => number | undefined) | undefined;
   const bar = progressBar('design');
+  // A log file gets a line per finished start of a run past the delay, no more than one per interval (a short design adds none).
+  const log = progressLog('design', { delayMs: PROGRESS_DELAY_MS, intervalMs: LOG_INTERVAL_MS });
   try {
     for (const [name, v, min, max] of [['--starts', args.starts, 1, 100_000], ['--top', args.top, 1, 10_000], ['--workers', args.workers, 1, 1024], ['--evaluations', args.evaluations, 10, 1_000_000]] as const) {
       if (v !== undefined && (!Number.isInteger(v) || v < min || v > max)) throw new InputError('bad-value', `${name}: must be a whole number from ${min} to ${max}, got ${v}`);
@@ -151,6 +153,7 @@ export async function runDesign(args: DesignArgs): Promise<Outcome> {
       onProgress: (done, total, last) => {
         if (last.type === 'design-start') best = Math.min(best, last.snapped.loss);
         bar.update(done, total, `best loss ${sig(best, 3)}`);
+        log.finished(done, total, `start ${done}/${total} done · best loss ${sig(best, 3)} · ${total - done} to go`);
       },
     });
     const robust = args.robust ? await robustRank(loaded.spec, result, { ...DEFAULT_TOLERANCE, samples: ROBUST_SAMPLES, seed: args.seed, workers: args.workers, islands: false }) : undefined;

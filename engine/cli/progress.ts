@@ -1,7 +1,9 @@
 /**
  * What a long command shows while it works, on stderr only (stdout stays for results): a progress
  * bar when stderr is a terminal, drawn once the work has taken PROGRESS_DELAY_MS (a quick command
- * never flashes one), and an up-front note, on any stderr, when the predicted work takes minutes.
+ * never flashes one); when stderr is not a terminal (a log file, a batch system), one timestamped
+ * line per finished unit of work, so the log tells where an overnight run is; and an up-front note,
+ * on any stderr, when the predicted work takes minutes.
  */
 import { createRequire } from 'node:module';
 import type cliProgressModule from 'cli-progress';
@@ -49,6 +51,36 @@ export function progressBar(label: string, delayMs = PROGRESS_DELAY_MS): Progres
     stop: () => {
       clearTimeout(timer);
       bar?.stop();
+    },
+  };
+}
+
+/** Least time (ms) between two log lines of a command that finishes many small units (design starts). */
+export const LOG_INTERVAL_MS = 10_000;
+
+export interface ProgressLog {
+  /** Unit `done` of `total` has finished; `text` says which and how it went. */
+  readonly finished: (done: number, total: number, text: string) => void;
+}
+
+/** An ISO 8601 UTC time to the second, "2026-12-03T13:40:12Z". */
+export const isoSecond = (t: Date): string => t.toISOString().replace(/\.\d{3}Z$/, 'Z');
+
+/**
+ * When stderr is not a terminal, writes "TIME LABEL: TEXT" (TIME ISO 8601 UTC) for finished units
+ * of work: none before the work has run `delayMs`, then at most one per `intervalMs`, and always
+ * the last unit once any line was due. On a terminal it writes nothing (the bar shows progress).
+ */
+export function progressLog(label: string, { delayMs = 0, intervalMs = 0 }: { readonly delayMs?: number; readonly intervalMs?: number } = {}): ProgressLog {
+  if (process.stderr.isTTY) return { finished: () => undefined };
+  const created = Date.now();
+  let last = -Infinity;
+  return {
+    finished: (done, total, text) => {
+      const now = Date.now();
+      if (now - created < delayMs || (now - last < intervalMs && done < total)) return;
+      last = now;
+      process.stderr.write(`${isoSecond(new Date(now))} ${label}: ${text}\n`);
     },
   };
 }

@@ -5,12 +5,8 @@
  */
 import { existsSync, statSync } from 'node:fs';
 import { join } from 'node:path';
-import { InputError } from '../errors.js';
-import { RunStore, STORE_FILE, storedResult, type DesignRecord, type JobRecord } from '../store/store.js';
-import { fullSolve, prepareDesign } from '../design/problem.js';
-import type { SolveResult } from '../solve.js';
-import type { Spec } from '../input/schema.js';
-import { compileTargets, needsWavefunctions, scoreTargets } from '../../objectives/index.js';
+import { RunStore, STORE_FILE, type DesignRecord, type JobRecord } from '../store/store.js';
+import { scoreStoredDesigns } from '../campaign/score.js';
 import type { Evaluation } from '../../objectives/types.js';
 
 /** One job of a campaign with its best (rank-1) design scored against that job's own targets. */
@@ -52,26 +48,12 @@ interface JobRow extends JobRecord {
   readonly parameter_set: string | null;
 }
 
-/**
- * A job's best design scored against its own targets. The store keeps no wavefunctions (format 2),
- * so targets that read them (overlaps, oscillator strengths) are scored on the design solved again
- * from the job's spec and the design's values: the same deterministic solve the search made.
- */
+/** A job's best design scored against its own targets (engine/campaign/score.ts). */
 function jobOf(row: JobRow, best: DesignRecord | undefined): CampaignJob {
   const base = { index: row.idx, name: row.name, state: row.state, status: row.status, message: row.message, evaluations: row.evaluations };
   if (!best) return { ...base, loss: null, satisfied: null, targets: [], transition: [] };
-  try {
-    const spec = JSON.parse(row.spec_json) as Spec;
-    const targets = compileTargets(spec.targets, spec.wire !== undefined ? 'wire' : 'stack');
-    const stored = storedResult(best) as unknown as SolveResult;
-    const result = needsWavefunctions(targets) && stored.wavefunctions === undefined
-      ? fullSolve(prepareDesign(spec), JSON.parse(best.values_json) as Record<string, number>)
-      : stored;
-    return { ...base, loss: best.loss, satisfied: best.satisfied === 1, targets: scoreTargets(targets, result).evaluations, transition: targets.map((t) => t.objective.kind === 'transition') };
-  } catch (e) {
-    if (e instanceof InputError) throw e;
-    throw new InputError('schema', `run store job "${row.name}": its stored spec or best design is not readable (${e instanceof Error ? e.message : String(e)}); the store is damaged — rerun that job into a fresh folder`);
-  }
+  const { targets, scored } = scoreStoredDesigns(row, [best]);
+  return { ...base, loss: best.loss, satisfied: best.satisfied === 1, targets: scored[0]!.evaluations, transition: targets.map((t) => t.objective.kind === 'transition') };
 }
 
 /**
