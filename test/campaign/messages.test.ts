@@ -5,7 +5,7 @@
  * the two ends on the grid, while an end on the grid (up to floating-point residue) draws none.
  * Expected values are worked out by hand from the ranges written below.
  */
-import { writeFileSync } from 'node:fs';
+import { existsSync, writeFileSync } from 'node:fs';
 import { join } from 'node:path';
 import fc from 'fast-check';
 import { describe, expect, it } from 'vitest';
@@ -36,6 +36,20 @@ describe('misspelt keys in a campaign file', () => {
     expect(o.code, o.stderr).toBe(2);
     expect(o.stdout).toBe('');
     expect(o.stderr.replace(file, 'c.yaml').trimEnd()).toMatch(message);
+  });
+});
+
+describe('a sweep path the base spec does not have', () => {
+  it('targets[0].wavelenght is an input error before any job runs: exit 2, the path meant, no run folder', async () => {
+    const file = campaignFile(['sweep:', "  targets[0].wavelenght: ['1480 nm', '1520 nm']"]);
+    const out = join(file, '..', 'run');
+    const o = await cli(['campaign', file, '--out', out]);
+    expect(o.code, o.stderr).toBe(2);
+    expect(o.stdout).toBe('');
+    expect(o.stderr.trim().split('\n')).toHaveLength(1);
+    expect(o.stderr).toMatch(/targets\[0\]\.wavelenght/);
+    expect(o.stderr).toMatch(/did you mean "?wavelength"?/);
+    expect(existsSync(out), 'no run folder created').toBe(false);
   });
 });
 

@@ -91,6 +91,11 @@ describe('report in a browser', () => {
       { file: await write('report-campaign.html', campaignPage), plots: 3 },
       { file: await write('report-detector.html', buildReport(inputFromText(DETECTOR_SPEC, 'detector.yaml'))), plots: 3 },
       { file: await write('band-diagrams.html', diagrams), plots: scenarios.length },
+      // Gain spectra (TE/TM at several densities), gain–density curve and spontaneous emission after
+      // the band diagram, valence dispersion and DOS; a doped detector's self-consistent profile and
+      // absorption spectrum after its band diagram and DOS.
+      { file: await write('report-optics.html', buildReport(loadReportInput('runs/tm-gain-tensile.yaml'))), plots: 6 },
+      { file: await write('report-doped.html', buildReport(loadReportInput('runs/qwip-doped-9um.yaml'))), plots: 4 },
     ];
     expect(loadReportInput(run).kind).toBe('campaign');
     const profile = mkdtempSync(join(tmpdir(), 'ws-chromium-'));
