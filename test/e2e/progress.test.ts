@@ -42,6 +42,14 @@ describe('runs that never go silent', () => {
     expect(quick).toBe('');
   });
 
+  it('report --tolerance draws the bar of its Monte Carlo samples on a terminal once they run past the delay', async () => {
+    const out = join(mkdtempSync(join(tmpdir(), 'ws-progress-')), 'r.html');
+    let code = -1;
+    const drawn = await onTerminal(async () => { code = (await cli(['report', 'runs/pump-976.yaml', '--tolerance', '--samples', '8000', '--workers', '1', '--out', out])).code; });
+    expect(code).toBe(0);
+    expect(drawn).toMatch(/tolerance \[.*\] \d+\/\d+ .* sample batches/);
+  }, 60_000);
+
   it('a prediction above a minute is noted before the work, in words', async () => {
     expect(await onTerminal(() => noteLongWork('x', 59, 'why'))).toBe('');
     expect(await onTerminal(() => noteLongWork('this design', 7200, '10 starts'))).toBe('wellsmith: note: this design is predicted to take about 2.0 h (10 starts)\n');
