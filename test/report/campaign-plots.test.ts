@@ -5,11 +5,13 @@
  * scored target with the spec's own window (±5 nm) drawn around zero.
  */
 import { beforeAll, describe, expect, it } from 'vitest';
+import { existsSync, writeFileSync } from 'node:fs';
 import { join } from 'node:path';
+import { cli } from '../../engine/cli/app.js';
 import { readCampaign } from '../../engine/report/campaign-read.js';
 import { bestDesigns, campaignDesignSections, jobCoordinates, offsetCurvesSpec, sweepAxes, variableCurvesSpec } from '../../engine/report/campaign-plots.js';
 import { RunStore } from '../../engine/store/store.js';
-import { referenceRun, tempDir, tinyCampaign, TINY_JOBS } from '../campaign/helpers.js';
+import { referenceRun, ROOT, tempDir, tinyCampaign, TINY_JOBS } from '../campaign/helpers.js';
 
 type Row = { kind: string; row: string; x: number; y?: number; job?: string; lo?: number; hi?: number };
 const rowsOf = (spec: unknown): Row[] => (spec as { data: { values: Row[] } }).data.values;
@@ -58,4 +60,37 @@ describe('campaign design curves', () => {
     expect(sections.map((s) => s.id)).toEqual(['design-curves', 'target-offsets']);
     for (const s of sections) expect(s.html).toMatch(/<svg\b/);
   });
+
+  it('a second sweep axis gets one panel per value: wavelength × temperature, two points per panel and row', async () => {
+    const dir = tempDir('campaign-plots-2');
+    const file = join(dir, 'two-axes.yaml');
+    writeFileSync(file, [
+      `spec: ${JSON.stringify(join(ROOT, 'runs/telecom-1550-inp.yaml'))}`,
+      'design: { starts: 2, top: 1, seed: 5, evaluations: 20 }',
+      'sweep:',
+      "  targets[0].wavelength: ['1500 nm', '1560 nm']",
+      "  temperature: ['280 K', '320 K']",
+      '',
+    ].join('\n'));
+    const twoRun = join(dir, 'two.run');
+    await referenceRun(file, twoRun);
+    const report = readCampaign(twoRun);
+    const axes = sweepAxes(report.jobs.map((j) => j.name))!;
+    expect(axes.map((a) => a.name)).toEqual(['wavelength', 'temperature']);
+    for (const spec of [variableCurvesSpec(report, bestDesigns(twoRun), axes), offsetCurvesSpec(report, axes)]) {
+      const facet = (spec as unknown as { facet: { column?: { field: string; sort: string[] } } }).facet;
+      expect(facet.column?.field).toBe('panel');
+      expect(facet.column?.sort).toEqual(['temperature = 280K', 'temperature = 320K']);
+      const points = rowsOf(spec).filter((r) => r.kind === 'point') as (Row & { panel: string })[];
+      for (const panel of facet.column!.sort) {
+        for (const row of new Set(points.map((p) => p.row))) {
+          expect(points.filter((p) => p.panel === panel && p.row === row).map((p) => p.x).sort(), `${panel} ${row}`).toEqual([1500, 1560]);
+        }
+      }
+    }
+    // `report RUN` without --out writes inside the run folder.
+    const o = await cli(['report', twoRun]);
+    expect(o.code, o.stderr).toBe(0);
+    expect(existsSync(join(twoRun, 'report.html'))).toBe(true);
+  }, 120_000);
 });
