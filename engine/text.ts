@@ -46,9 +46,17 @@ export const reviveNumbers = (_k: string, v: unknown): unknown => (v === 'Infini
  */
 const DECIMALS: Readonly<Record<string, number>> = { eV: 5, meV: 2, nm: 2, 'µm': 3, 'cm⁻¹': 1, '%': 3, states: 0, 't/h_c − 1': 3, m0: 4, '': 4 };
 
-/** A value in its unit's one format (DECIMALS; cm⁻² and unknown units with 4 significant figures); "–" when missing. */
+/**
+ * Densities span orders of magnitude (a subband's 21 cm⁻² beside e1's 2.3e11): always in exponent
+ * form with 4 significant figures, so a column of them compares at a glance.
+ */
+const EXPONENT_UNITS: ReadonlySet<string> = new Set(['cm⁻²', 'cm⁻³', 'cm⁻² eV⁻¹', 'cm²']);
+
+/** A value in its unit's one format (DECIMALS; densities in exponent form with 4 significant figures; other units 4 significant figures); "–" when missing. */
 export const inUnit = (x: number | null | undefined, unit: string): string =>
-  x === null || x === undefined ? '–' : DECIMALS[unit] !== undefined ? fixed(x, DECIMALS[unit]) : sig(x, 4);
+  x === null || x === undefined ? '–'
+    : EXPONENT_UNITS.has(unit) ? (x === 0 ? '0' : Number.isFinite(x) ? x.toExponential(3) : fixed(x, 0))
+      : DECIMALS[unit] !== undefined ? fixed(x, DECIMALS[unit]) : sig(x, 4);
 
 /** inUnit followed by the unit ("991.41 nm"). */
 export const withUnit = (x: number | null | undefined, unit: string): string => (x === null || x === undefined ? '–' : `${inUnit(x, unit)}${unit ? ` ${unit}` : ''}`);

@@ -6,7 +6,7 @@ import { stateRegions, stateWells, type StateRegion } from '../../objectives/wel
 import { noteLongWork, progressBar } from './progress.js';
 import { describeOffsetRule, INTERFACE_HEADER, interfaceRow } from '../lineup.js';
 import { EXIT, failure, success, type Outcome } from './exit.js';
-import { fixed, inUnit, sig, table, toJson } from '../text.js';
+import { fixed, inUnit, table, toJson, withUnit } from '../text.js';
 import { describeWire, wireJson } from '../wire/describe.js';
 import { solveWire } from '../wire/solve.js';
 import { hasDoping } from '../poisson/doping.js';
@@ -82,11 +82,11 @@ export function describeSolve(r: SolveResult): string {
   }
   const isb = r.transitions.filter((t) => t.kind === 'intersubband' && t.label.startsWith('e1-'));
   if (isb.length > 0) out.push('Intersubband transitions from e1 (all pairs in --json)', table(['transition', 'energy meV', 'wavelength µm', 'wavenumber cm⁻¹', 'dipole nm', 'osc. strength'], isb.map((t) => [t.label, inUnit(t.energy_eV * 1000, 'meV'), inUnit(t.wavelength_nm / 1000, 'µm'), inUnit(t.wavenumber_per_cm, 'cm⁻¹'), fixed(t.dipole_nm, 4), inUnit(t.oscillator_strength, '')])), '');
-  const dosRows = BANDS.flatMap((b) => r.dos.bands[b].map((d) => [d.label, inUnit(d.edge_eV, 'eV'), inUnit(d.mass_inplane, 'm0'), sig(d.step_per_cm2_per_eV, 4)]));
+  const dosRows = BANDS.flatMap((b) => r.dos.bands[b].map((d) => [d.label, inUnit(d.edge_eV, 'eV'), inUnit(d.mass_inplane, 'm0'), inUnit(d.step_per_cm2_per_eV, 'cm⁻² eV⁻¹')]));
   out.push(`2-D density of states: one step per subband (${r.dos.unit})`, table(['subband', 'edge eV', 'm∥ m0', 'step cm⁻² eV⁻¹'], dosRows));
   if (r.carriers) {
     const c = r.carriers;
-    out.push('', `Injected carriers n = p = ${sig(c.sheet_density_cm2, 3)} cm⁻² at ${c.temperature_K} K: quasi-Fermi levels ${inUnit(c.electron_quasi_fermi_eV, 'eV')} eV (electrons), ${inUnit(c.hole_quasi_fermi_eV, 'eV')} eV (holes), separation ${inUnit(c.separation_eV, 'eV')} eV — ${c.inversion ? 'above' : 'below'} the band-edge transition (${c.inversion ? 'gain possible' : 'no inversion'}); ${c.note}`);
+    out.push('', `Injected carriers n = p = ${withUnit(c.sheet_density_cm2, 'cm⁻²')} at ${c.temperature_K} K: quasi-Fermi levels ${inUnit(c.electron_quasi_fermi_eV, 'eV')} eV (electrons), ${inUnit(c.hole_quasi_fermi_eV, 'eV')} eV (holes), separation ${inUnit(c.separation_eV, 'eV')} eV — ${c.inversion ? 'above' : 'below'} the band-edge transition (${c.inversion ? 'gain possible' : 'no inversion'}); ${c.note}`);
   }
   if (r.optics) out.push('', describeOptics(r.optics));
   if (r.limits) out.push('', ...r.limits.map((l) => `limited: ${l}`));

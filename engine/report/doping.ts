@@ -7,7 +7,7 @@
  */
 import type { TopLevelSpec } from 'vega-lite';
 import type { DopedSpecResult } from '../poisson/doped.js';
-import { fixed, sig } from '../text.js';
+import { fixed, inUnit, sig, withUnit } from '../text.js';
 import { figureHtml, htmlTable, type Section } from './html.js';
 import { PALETTE } from './palette.js';
 import { HC_EV_NM } from '../constants.js';
@@ -67,8 +67,8 @@ export async function dopingSections(r: DopedSpecResult): Promise<Section[]> {
   const sections: Section[] = [{
     id: 'self-consistent',
     title: 'Self-consistent potential',
-    lead: `Schrödinger–Poisson (Hartree), ${sc.carriers}: ${sc.status} in ${sc.iterations} iterations, last change of the potential ${sig(sc.residual_eV, 2)} eV (tolerance ${sig(sc.tolerance_eV, 2)} eV; Anderson mixing β = ${sc.mixing} over the predictor–corrector step; mesh ${sc.mesh_nm} nm). Boundary conditions: ${sc.boundary}. Bias ${sig(r.bias.voltage_V, 3)} V (${sig(r.bias.field_kV_per_cm, 3)} kV/cm).${cells} Donors ${sig(sc.doping.donors_cm2, 3)} cm⁻², acceptors ${sig(sc.doping.acceptors_cm2, 3)} cm⁻², neutral to ${sig(sc.neutrality, 2)}.`,
-    html: `${figureHtml(await renderSvg(profileSpec(r)), 'The majority band\'s edge with the electrostatic potential and the bias (solid), the Fermi level over each neutral cell (dashed) and the subband edges (dotted), eV on the absolute scale, versus z (nm).')}\n${htmlTable(['subband', 'energy (eV)', 'm∥ (m0)', 'sheet density (cm⁻²)'], [...sc.subbands.map((s) => [s.label, fixed(s.energy_eV, 5), fixed(s.mass_inplane, 4), sig(s.density_cm2, 4)]), ['continuum (3-D gas)', '–', '–', sig(sc.gas_cm2, 3)]], [1, 2, 3])}`,
+    lead: `Schrödinger–Poisson (Hartree), ${sc.carriers}: ${sc.status} in ${sc.iterations} iterations, last change of the potential ${sig(sc.residual_eV, 2)} eV (tolerance ${sig(sc.tolerance_eV, 2)} eV; Anderson mixing β = ${sc.mixing} over the predictor–corrector step; mesh ${sc.mesh_nm} nm). Boundary conditions: ${sc.boundary}. Bias ${inUnit(r.bias.voltage_V, '')} V (${fixed(r.bias.field_kV_per_cm, 2)} kV/cm).${cells} Donors ${withUnit(sc.doping.donors_cm2, 'cm⁻²')}, acceptors ${withUnit(sc.doping.acceptors_cm2, 'cm⁻²')}, neutral to ${sig(sc.neutrality, 2)}.`,
+    html: `${figureHtml(await renderSvg(profileSpec(r)), 'The majority band\'s edge with the electrostatic potential and the bias (solid), the Fermi level over each neutral cell (dashed) and the subband edges (dotted), eV on the absolute scale, versus z (nm).')}\n${htmlTable(['subband', 'energy (eV)', 'm∥ (m0)', 'sheet density (cm⁻²)'], [...sc.subbands.map((s) => [s.label, inUnit(s.energy_eV, 'eV'), inUnit(s.mass_inplane, 'm0'), inUnit(s.density_cm2, 'cm⁻²')]), ['continuum (3-D gas)', '–', '–', inUnit(sc.gas_cm2, 'cm⁻²')]], [1, 2, 3])}`,
   }];
   const a = r.absorption;
   const spec = absorptionSpec(r);
@@ -78,7 +78,7 @@ export async function dopingSections(r: DopedSpecResult): Promise<Section[]> {
       id: 'absorption',
       title: 'Intersubband absorption',
       lead: `Peak ${fixed(a.peak_eV * 1000, 2)} meV (${fixed(a.peak_um, 3)} µm), ${fixed(a.peak_absorption * 100, 3)} % per pass for ${GEOMETRY[o.coupling]} (n = ${o.refractiveIndex}), FWHM ${fixed(a.fwhm_meV, 1)} meV (${fixed(a.fwhm_um, 3)} µm). Lorentzian lines of ${fixed(o.linewidth_eV * 1000, 1)} meV, ${o.depolarisation ? 'each shifted by its depolarisation field (Ando, Fowler & Stern 1982; Allen, Tsui & Vinter 1976)' : 'without depolarisation'}; continuum discretised by ${o.continuum_nm} nm of barrier on each side (${a.continuumStates} states up to ${fixed(o.range_eV * 1000, 0)} meV above the barrier edge).`,
-      html: `${figureHtml(await renderSvg(spec), 'Absorption per pass (%) versus wavelength (µm); the dashed line marks the peak.')}\n${htmlTable(['line', 'E (meV)', 'depolarised (meV)', 'z (nm)', 'n_i − n_j (cm⁻²)', 'peak (%)'], a.lines.slice(0, 12).map((l) => [l.label, fixed(l.energy_eV * 1000, 2), fixed(l.shifted_eV * 1000, 2), fixed(l.dipole_nm, 4), sig(l.population_cm2, 3), fixed(l.strength * 100, 4)]), [1, 2, 3, 4, 5])}`,
+      html: `${figureHtml(await renderSvg(spec), 'Absorption per pass (%) versus wavelength (µm); the dashed line marks the peak.')}\n${htmlTable(['line', 'E (meV)', 'depolarised (meV)', 'z (nm)', 'n_i − n_j (cm⁻²)', 'peak (%)'], a.lines.slice(0, 12).map((l) => [l.label, inUnit(l.energy_eV * 1000, 'meV'), inUnit(l.shifted_eV * 1000, 'meV'), fixed(l.dipole_nm, 4), inUnit(l.population_cm2, 'cm⁻²'), inUnit(l.strength * 100, '%')]), [1, 2, 3, 4, 5])}`,
     });
   } else if (a) {
     sections.push({ id: 'absorption', title: 'Intersubband absorption', lead: 'No bound subband holds carriers: no absorption line.', html: '' });

@@ -4,7 +4,7 @@
  * fit, the spontaneous-emission spectra, and the table of figures per density.
  */
 import type { TopLevelSpec } from 'vega-lite';
-import { fixed, sig } from '../text.js';
+import { fixed, inUnit, withUnit } from '../text.js';
 import { HC_EV_NM } from '../constants.js';
 import type { OpticsResult } from '../optics/optics.js';
 import { figureHtml, htmlTable, type Section } from './html.js';
@@ -14,7 +14,7 @@ import { renderSvg } from './render.js';
 /** One colour per density, in order (the palette without straw, which is for windows). */
 const SERIES_COLOURS = [PALETTE.indigo, PALETTE.amber, PALETTE.rose, PALETTE.sky, PALETTE.ink];
 
-const densityLabel = (n: number, p: number): string => (n === p ? `${sig(n, 3)} cm⁻²` : `n ${sig(n, 3)}, p ${sig(p, 3)} cm⁻²`);
+const densityLabel = (n: number, p: number): string => (n === p ? withUnit(n, 'cm⁻²') : `n ${inUnit(n, 'cm⁻²')}, p ${withUnit(p, 'cm⁻²')}`);
 
 /** Gain spectra (cm⁻¹) against wavelength (nm): one colour per density, TE solid, TM dashed; the unpumped absorption as −α in ink. */
 export function gainSpectraSpec(o: OpticsResult): TopLevelSpec {
@@ -88,10 +88,10 @@ export function spontaneousSpec(o: OpticsResult): TopLevelSpec {
 /** The optics section of a solve's report. */
 export async function opticsSection(o: OpticsResult, id = 'optics'): Promise<Section> {
   const m = o.model;
-  const rows = o.spectra.map((s) => [densityLabel(s.electrons_cm2, s.holes_cm2), fixed(s.separation_eV, 4), fixed(s.peak_te.gain_per_cm, 0), fixed(s.peak_te.wavelength_nm, 2),
-    fixed(s.peak_tm.gain_per_cm, 0), fixed(s.peak_tm.wavelength_nm, 2), sig(s.differential_gain_te_cm2, 3), fixed(s.radiative_current_A_per_cm2, 1)]);
+  const rows = o.spectra.map((s) => [densityLabel(s.electrons_cm2, s.holes_cm2), inUnit(s.separation_eV, 'eV'), fixed(s.peak_te.gain_per_cm, 0), fixed(s.peak_te.wavelength_nm, 2),
+    fixed(s.peak_tm.gain_per_cm, 0), fixed(s.peak_tm.wavelength_nm, 2), inUnit(s.differential_gain_te_cm2, 'cm²'), fixed(s.radiative_current_A_per_cm2, 1)]);
   const fit = o.gain_curve.fit_te;
-  const per3d = (n: number): string => (Number.isFinite(n) ? `${sig(n, 3)} cm⁻² (${sig(n / (o.well.thickness_nm * 1e-7), 3)} cm⁻³)` : 'not reached');
+  const per3d = (n: number): string => (Number.isFinite(n) ? `${withUnit(n, 'cm⁻²')} (${withUnit(n / (o.well.thickness_nm * 1e-7), 'cm⁻³')})` : 'not reached');
   return {
     id, title: 'Optical gain and emission',
     lead: `${m.gain_reference[0]!.toUpperCase()}${m.gain_reference.slice(1)}, at ${o.temperature_K} K. Valence: ${m.valence}; conduction: ${m.conduction}. Lineshape ${m.lineshape.kind} (${m.lineshape.source}), τ_in = ${m.lineshape.intraband_time_ps} ps; refractive index ${fixed(m.refractive_index.value, 3)} (${m.refractive_index.source}); Kane energy: ${m.kane_energy}; band-gap renormalisation ${m.band_gap_renormalisation}. Transparency (peak gain 0): TE ${per3d(o.transparency_te_cm2)}, TM ${per3d(o.transparency_tm_cm2)}.${fit ? ` Fit of the TE peak: g = ${fixed(fit.g0_per_cm, 0)} cm⁻¹ · ln(N/N_tr), N_tr = ${per3d(fit.transparency_cm2)}, rms ${fixed(fit.rms_per_cm, 0)} cm⁻¹.` : ''} ${o.note}.`,

@@ -113,7 +113,7 @@ export function transitionsSection(r: SolveResult, id = 'transitions'): Section 
 }
 
 export async function dosSection(r: SolveResult, id = 'dos'): Promise<Section> {
-  const rows = BANDS.flatMap((b) => r.dos.bands[b].map((d) => [d.label, fixed(d.edge_eV, 5), fixed(d.mass_inplane, 4), sig(d.step_per_cm2_per_eV, 4)]));
+  const rows = BANDS.flatMap((b) => r.dos.bands[b].map((d) => [d.label, inUnit(d.edge_eV, 'eV'), inUnit(d.mass_inplane, 'm0'), inUnit(d.step_per_cm2_per_eV, 'cm⁻² eV⁻¹')]));
   return {
     id, title: 'Density of states',
     lead: 'Two-dimensional staircase Σ m∥/(πħ²) Θ(E − Eₙ) per band (spin included) and the bulk envelope g3(E)·L of the confining layers (total width L, given in each panel\'s title) with the density-of-states mass (m∥² m_z)^(1/3).',
