@@ -105,7 +105,7 @@ export function runSolve(args: SolveArgs): Outcome {
     locate = loaded.locate;
     const warnings = loaded.warnings;
     if (loaded.spec.wire !== undefined) {
-      const wire = solveWire(loaded.spec);
+      const wire = solveWire(loaded.spec, nominalVariables(loaded.spec), { onProgress: (done, total, what) => bar.update(done, total, what) });
       bar.stop();
       return success(`${args.json ? toJson({ ...(wireJson(wire, args.maps ?? false) as object), warnings }) : describeWire(wire)}\n`, wire.status === 'ok' ? EXIT.ok : EXIT.physics, warnings);
     }

@@ -9,11 +9,12 @@ import { InputError } from '../errors.js';
 import { fixed, inUnit, sig } from '../text.js';
 import type { BandName } from '../profile.js';
 import { BANDS } from '../solve.js';
-import type { WireSolveResult } from '../wire/solve.js';
+import type { WireSolveResult, WireTransition } from '../wire/solve.js';
+import { magnitude } from '../wire/describe.js';
 import { figureHtml, htmlTable, type Section } from './html.js';
 import { BAND_COLOURS, BAND_NAMES, PALETTE } from './palette.js';
 import { renderSvg } from './render.js';
-import { MIN_OVERLAP2 } from './defaults.js';
+import { MIN_OSCILLATOR_STRENGTH, MIN_OVERLAP2 } from './defaults.js';
 
 /** States mapped per band (the tables list them all). */
 export const MAPPED_STATES = 2;
@@ -173,28 +174,31 @@ export function wireDosSpec(r: WireSolveResult): TopLevelSpec {
 }
 
 /**
- * What the wire solve records for an intersubband line besides its energy: the dipole matrix
- * elements ⟨i|x|j⟩ and ⟨i|z|j⟩ over the cross-section (nm) and the oscillator strength for light
- * polarised across the wire, f = (2 m ΔE/ħ²)(x_ij² + z_ij²) with the sum-rule mass (as
- * engine/observables/matrix-elements.ts for wells). Absent from a solve that does not compute them.
+ * The lines the report shows: interband with overlap² ≥ MIN_OVERLAP2, intersubband with the
+ * oscillator strength of either polarisation ≥ MIN_OSCILLATOR_STRENGTH, as for wells; every
+ * intersubband line of a result written before wire solves recorded dipoles (`dipoles` false).
  */
-interface WireIntersubband {
-  readonly dipole_x_nm?: number;
-  readonly dipole_z_nm?: number;
-  readonly oscillator_strength?: number;
+function shownLines(r: WireSolveResult): { readonly inter: WireTransition[]; readonly isb: WireTransition[]; readonly dipoles: boolean; readonly omitted: number } {
+  const inter = r.transitions.filter((t) => t.kind === 'interband' && t.overlap2 >= MIN_OVERLAP2);
+  const all = r.transitions.filter((t) => t.kind === 'intersubband');
+  const dipoles = all.some((t) => t.oscillator_strength_x !== undefined);
+  const isb = dipoles ? all.filter((t) => Math.max(Math.abs(t.oscillator_strength_x ?? 0), Math.abs(t.oscillator_strength_y ?? 0)) >= MIN_OSCILLATOR_STRENGTH) : all;
+  return { inter, isb, dipoles, omitted: r.transitions.length - inter.length - isb.length };
 }
 
-/** Interband lines (overlap² ≥ MIN_OVERLAP2) and intersubband lines (dipoles, oscillator strength), as two tables. */
-function transitionTables(r: WireSolveResult): string {
-  const inter = r.transitions.filter((t) => t.kind === 'interband' && t.overlap2 >= MIN_OVERLAP2);
-  const isb = r.transitions.filter((t) => t.kind === 'intersubband').map((t) => ({ ...t, ...(t as WireIntersubband) }));
+/**
+ * Interband and intersubband lines as two tables. An intersubband line shows its dipoles across
+ * the wire, |x_ij| and |z_ij| (the solve's y, the growth axis; signed in --json), and the
+ * oscillator strength of each polarisation (engine/wire/dipoles.ts).
+ */
+function transitionTables({ inter, isb, dipoles }: ReturnType<typeof shownLines>): string {
   const parts = [];
   if (inter.length) parts.push('<h3>Interband</h3>', htmlTable(['transition', 'energy (eV)', 'wavelength (nm)', 'overlap²'], inter.map((t) => [t.label, inUnit(t.energy_eV, 'eV'), inUnit(t.wavelength_nm, 'nm'), inUnit(t.overlap2, '')]), [1, 2, 3]));
   if (isb.length) {
-    const dipoles = isb.some((t) => t.oscillator_strength !== undefined);
-    parts.push('<h3>Intersubband</h3>', htmlTable(['transition', 'energy (meV)', 'wavelength (µm)', ...(dipoles ? ['dipole x (nm)', 'dipole z (nm)', 'oscillator strength'] : [])],
-      isb.map((t) => [t.label, inUnit(t.energy_eV * 1000, 'meV'), inUnit(t.wavelength_nm / 1000, 'µm'), ...(dipoles ? [fixed(t.dipole_x_nm, 4), fixed(t.dipole_z_nm, 4), inUnit(t.oscillator_strength, '')] : [])]), dipoles ? [1, 2, 3, 4, 5] : [1, 2]));
-    if (!dipoles) parts.push('<p class="lead">This wire solve records no intersubband dipole matrix elements, so no oscillator strength is shown (an envelope overlap would say nothing: it is zero between orthogonal states).</p>');
+    parts.push('<h3>Intersubband</h3>', htmlTable(['transition', 'energy (meV)', 'wavelength (µm)', ...(dipoles ? ['|x_ij| (nm)', '|z_ij| (nm)', 'f, x-polarised', 'f, z-polarised'] : [])],
+      isb.map((t) => [t.label, inUnit(t.energy_eV * 1000, 'meV'), inUnit(t.wavelength_nm / 1000, 'µm'),
+        ...(dipoles ? [magnitude(t.dipole_x_nm), magnitude(t.dipole_y_nm), inUnit(t.oscillator_strength_x, ''), inUnit(t.oscillator_strength_y, '')] : [])]), dipoles ? [1, 2, 3, 4, 5, 6] : [1, 2]));
+    if (!dipoles) parts.push('<p class="lead">This result was written before wire solves recorded intersubband dipoles; solve the spec again for their dipoles and oscillator strengths.</p>');
   }
   return parts.length ? parts.join('\n') : '<p>No transition: a band has no bound state.</p>';
 }
@@ -209,6 +213,7 @@ export async function wireSections(r: WireSolveResult): Promise<Section[]> {
     return `${BAND_NAMES[b]} ${fixed(t.energy_eV, 5)} eV (${t.source === 'barrier' ? 'barrier edge' : `parent well ${t.field.replace(/^wire\.shape\./, '')}`})`;
   }).join(', ');
   const parent = BANDS.flatMap((b) => r.bands[b].parentWellStates.map((x) => [BAND_NAMES[b], x.label, fixed(x.energy_eV, 5), fixed(x.binding_meV, 2), x.where.replace(/^wire\.shape\./, ''), fixed(x.share, 2)]));
+  const lines = shownLines(r);
   return [
     {
       id: 'cross-section', title: 'Cross-section',
@@ -228,8 +233,8 @@ export async function wireSections(r: WireSolveResult): Promise<Section[]> {
     },
     {
       id: 'transitions', title: 'Transitions',
-      lead: `Interband transitions with envelope overlap² ≥ ${MIN_OVERLAP2}${r.transitions.some((t) => t.kind === 'interband' && !(t.overlap2 >= MIN_OVERLAP2)) ? ' (weaker pairs left out; "wellsmith solve --json" lists all)' : ''}; intersubband transitions with their energies, and where the solve records them their dipole matrix elements across the wire (x, z) and oscillator strength.`,
-      html: transitionTables(r),
+      lead: `Interband transitions with envelope overlap² ≥ ${MIN_OVERLAP2}; ${lines.dipoles ? `intersubband transitions with an oscillator strength ≥ ${MIN_OSCILLATOR_STRENGTH} for light polarised across the wire along x or along z (growth), with their dipoles; f is normalised as for wells (Σ_j f = 1 per polarisation for a parabolic band)` : 'intersubband transitions with their energies'}${lines.omitted > 0 ? ` (${lines.omitted} weaker pairs left out; "wellsmith solve --json" lists all)` : ''}.`,
+      html: transitionTables(lines),
     },
     {
       id: 'dos', title: 'Density of states',

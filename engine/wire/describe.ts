@@ -1,11 +1,14 @@
 /** Human table and machine-readable form of a wire solve, for `wellsmith solve` on a wire spec. */
 import type { BandName } from '../profile.js';
-import { fixed, sig, table } from '../text.js';
+import { fixed, inUnit, sig, table } from '../text.js';
 import { describeModels } from '../structure.js';
 import { describeOffsetRule } from '../lineup.js';
 import type { WireSolveResult } from './solve.js';
 
 const BANDS: readonly BandName[] = ['electron', 'heavy_hole', 'light_hole'];
+
+/** |d| of a dipole (nm) to 0.1 pm: its sign follows the arbitrary signs of the two envelopes. */
+export const magnitude = (d: number | undefined): string => fixed(d === undefined ? d : Math.abs(d), 4);
 
 /** Everything but the |ψ|² maps and the sampled DOS curves unless `maps` is set. */
 export function wireJson(r: WireSolveResult, maps: boolean): unknown {
@@ -55,6 +58,15 @@ export function describeWire(r: WireSolveResult): string {
   if (spacing.length > 0) out.push('Subband spacings', table(['pair', 'meV'], spacing), '');
   const inter = r.transitions.filter((t) => t.kind === 'interband');
   if (inter.length > 0) out.push('Interband transitions', table(['transition', 'energy eV', 'wavelength nm', 'overlap²'], inter.map((t) => [t.label, fixed(t.energy_eV, 5), fixed(t.wavelength_nm, 2), fixed(t.overlap2, 4)])), '');
+  const isb = r.transitions.filter((t) => t.kind === 'intersubband' && t.label.startsWith('e1-'));
+  if (isb.length > 0) {
+    out.push(
+      'Intersubband transitions from e1 (all pairs in --json): dipoles across the wire, x in the growth plane and y along growth; oscillator strength f per polarisation, normalised as for wells (Σ_j f = 1 for a parabolic band)',
+      table(['transition', 'energy meV', 'wavelength µm', 'wavenumber cm⁻¹', '|x_ij| nm', '|y_ij| nm', 'f (x-pol.)', 'f (y-pol.)'],
+        isb.map((t) => [t.label, inUnit(t.energy_eV * 1000, 'meV'), inUnit(t.wavelength_nm / 1000, 'µm'), inUnit(t.wavenumber_per_cm, 'cm⁻¹'), magnitude(t.dipole_x_nm), magnitude(t.dipole_y_nm), inUnit(t.oscillator_strength_x, ''), inUnit(t.oscillator_strength_y, '')])),
+      '',
+    );
+  }
   const dosRows = BANDS.flatMap((b) => r.dos.bands[b].map((d) => [d.label, fixed(d.edge_eV, 5), fixed(d.mass_axis, 4), sig(d.prefactor_per_cm_per_sqrt_eV, 4)]));
   out.push('1-D density of states: g1 = Σ √(2m)/(πħ) (E − Eₙ)^(−1/2) (states cm⁻¹ eV⁻¹, spin included)', table(['subband', 'edge eV', 'm_axis m0', '√(2m)/(πħ) cm⁻¹ eV^-½'], dosRows));
   if (r.status !== 'ok') out.push('', `status: ${r.status}: ${r.message}`);

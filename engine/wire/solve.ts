@@ -2,7 +2,8 @@
  * The forward model of a quantum wire: WireStructure -> per band a cross-section grid -> states
  * (engine/solver2d.ts, Richardson-extrapolated) -> the continuum threshold (the barrier edge, or
  * the lowest level of the parent wells, solved exactly in 1-D) -> wire subbands (the states bound
- * below it) -> transitions with 2-D overlaps, the 1-D density of states and |ψ|² maps. The result
+ * below it) -> transitions (interband 2-D overlaps; intersubband dipoles and oscillator strengths
+ * for light polarised across the wire, engine/wire/dipoles.ts), the 1-D density of states and |ψ|² maps. The result
  * has the shape of a well's SolveResult where the two mean the same (bands[…].states[] with
  * label, energy_eV, confinement_meV, bound; barrier_eV, the continuum edge; transitions[];
  * structure.temperature_K), so objectives that read only those work on wires too, and they see
@@ -22,6 +23,9 @@ import { sampleCrossSection, solveCrossSectionConverged, type CrossSectionBox, t
 import { dos1d } from '../observables/dos.js';
 import { buildWireStructure, materialAt, type ParentWell, type WireMaterial, type WireSettings, type WireStructure } from './structure.js';
 import { commonGrid, overlap2d, type MapGrid } from './grid.js';
+import { wireMatrixElements, type WireMatrixElements } from './dipoles.js';
+import { oscillatorStrength } from '../observables/matrix-elements.js';
+import { fixed } from '../text.js';
 
 const BANDS: readonly BandName[] = ['electron', 'heavy_hole', 'light_hole'];
 const PREFIX: Readonly<Record<BandName, string>> = { electron: 'e', heavy_hole: 'hh', light_hole: 'lh' };
@@ -103,10 +107,26 @@ export interface WireBandResult {
 }
 
 /**
- * An interband transition of a wire: the well's transition shape without the intersubband fields.
- * overlap2 is |∫ψ_i ψ_j dx dy|²; for a degenerate level only the sum over its partners is basis-independent.
+ * A transition of a wire: the well's transition shape, with the intersubband strength given for
+ * each polarisation across the wire instead of along z. overlap2 is |∫ψ_i ψ_j dx dy|² (interband;
+ * 0 by orthogonality between states of one band). For a degenerate level (e2 and e3 of a square
+ * wire) the solver's basis is arbitrary: only sums over its partners are basis-independent.
  */
-export type WireTransition = Omit<TransitionResult, 'dipole_nm' | 'oscillator_strength'>;
+export interface WireTransition extends Omit<TransitionResult, 'dipole_nm' | 'oscillator_strength'> {
+  /** Intersubband only: ⟨i|x|j⟩ (nm, signed), x across the wire in the growth plane (engine/wire/dipoles.ts). */
+  readonly dipole_x_nm?: number;
+  /** Intersubband only: ⟨i|y|j⟩ (nm, signed), y the growth axis [001] (z in the report). */
+  readonly dipole_y_nm?: number;
+  /**
+   * Intersubband only: oscillator strength for light polarised along x, (2 m_x,i/ħ²)(E_j − E_i) x_ij²
+   * (oscillatorStrength, engine/observables/matrix-elements.ts) with the sum-rule mass
+   * m_x,i = 1/⟨i|1/m_x(E_i)|i⟩, the wells' normalisation: Σ_j f_ij = 1 for a parabolic band
+   * (Thomas–Reiche–Kuhn), i.e. m0/m* per polarisation in units of the free-electron f.
+   */
+  readonly oscillator_strength_x?: number;
+  /** Intersubband only: the same for light polarised along y (growth axis), with m_y,i. */
+  readonly oscillator_strength_y?: number;
+}
 
 export interface WireDosSubband {
   readonly label: string;
@@ -253,7 +273,16 @@ export function wireBox(s: WireStructure): { readonly box: CrossSectionBox; read
 export interface WireSolveOptions {
   /** Subbands sought in a band instead of settings.states (0 skips the band: no states, no envelopes); a design search asks only for what its targets read. */
   readonly states?: Partial<Record<BandName, number>>;
+  /**
+   * Called as each grid of each band is built for its solve, with the grids done, the grids
+   * expected (three per band, one more when a band needs h/4) and what is being solved; and once at
+   * the end with done = total. A grid counts as started when solveCrossSectionConverged builds it.
+   */
+  readonly onProgress?: (done: number, total: number, what: string) => void;
 }
+
+/** Grids a band's converged solve takes unless it needs h/4: 2h, h and h/2 (solveCrossSectionConverged). */
+const GRIDS_PER_BAND = 3;
 
 /**
  * Wire subbands, the continuum threshold, transitions, 1-D DOS and |ψ|² maps of a wire structure.
@@ -272,7 +301,10 @@ export interface WireSolveOptions {
  * its states cut off by the drawn lengths. Only states bound below the threshold by more than the
  * band's error estimate are wire subbands (e1, hh1…); the others below the barrier edge are
  * reported as parent-well states (pw:e1…), and those at or above the barrier edge, box states of
- * the outer wall, are dropped. Units: eV, nm, m0.
+ * the outer wall, are dropped. Intersubband lines (electron pairs) carry ⟨i|x|j⟩, ⟨i|y|j⟩ on the
+ * electron band's finest grid (wireMatrixElements, in the two-band inner product when the band
+ * is non-parabolic) and the oscillator strength of each polarisation with the line's
+ * (extrapolated) energy and the initial state's sum-rule mass along that axis. Units: eV, nm, m0.
  */
 export function solveWireStructure(structure: WireStructure, options: WireSolveOptions = {}): WireSolveResult {
   const settings = structure.settings;
@@ -281,6 +313,9 @@ export function solveWireStructure(structure: WireStructure, options: WireSolveO
   const raw = {} as Partial<Record<BandName, { psi: readonly Float64Array[]; nx: number; ny: number }>>;
   const wanted = (band: BandName): number => options.states?.[band] ?? settings.states;
   if (BANDS.every((b) => wanted(b) === 0)) throw new InputError('bad-value', 'states: every band is skipped (0 states); ask for at least one subband of one band', 'states');
+  let gridsBuilt = 0;
+  let gridsExpected = GRIDS_PER_BAND * BANDS.filter((b) => wanted(b) > 0).length;
+  let electronLines: WireMatrixElements | undefined;
   for (const band of BANDS) {
     const table = structure.materials.map((m) => bandMaterial(m, band, settings.nonparabolic));
     const sign = band === 'electron' ? 1 : -1;
@@ -298,7 +333,14 @@ export function solveWireStructure(structure: WireStructure, options: WireSolveO
       const g = sampleCrossSection(box, [(spacing[0] * h) / settings.grid_nm, (spacing[1] * h) / settings.grid_nm], at);
       return { ...g, wall_nm: [0.5 * g.dx_nm + rest[0], 0.5 * g.dy_nm + rest[1]] };
     };
-    const r = solveCrossSectionConverged(build, wanted(band), { h_nm: settings.grid_nm, tolerance_eV: settings.tolerance_eV });
+    let bandGrids = 0;
+    const tracked = (h: number): CrossSectionGrid => {
+      const g = build(h);
+      if (++bandGrids > GRIDS_PER_BAND) gridsExpected++;
+      options.onProgress?.(gridsBuilt++, gridsExpected, `${band.replace('_', ' ')}: grid ${fixed(g.dx_nm, 3)} nm, ${g.nx}×${g.ny} nodes`);
+      return g;
+    };
+    const r = solveCrossSectionConverged(tracked, wanted(band), { h_nm: settings.grid_nm, tolerance_eV: settings.tolerance_eV });
     const [nx, ny] = r.gridSize;
     const dx = box.width_nm / nx;
     const dy = box.height_nm / ny;
@@ -336,7 +378,13 @@ export function solveWireStructure(structure: WireStructure, options: WireSolveO
       converged: r.status === 'converged',
     };
     raw[band] = { psi: kept.map((k) => k.psi), nx, ny };
+    if (band === 'electron' && kept.length > 1) {
+      // The grid the states were solved on, built again at its spacing (the first grid's cell count over this one's).
+      const finest = build((settings.grid_nm * Math.round(box.width_nm / spacing[0])) / nx);
+      electronLines = wireMatrixElements(finest, kept.map((k) => k.e), kept.map((k) => k.psi));
+    }
   }
+  options.onProgress?.(gridsExpected, gridsExpected, 'transitions and density of states');
 
   const solved = BANDS.filter((b) => raw[b] !== undefined);
   const common = commonGrid(box, solved.map((b) => raw[b]!), (x, y) => materialAt(structure, x, y));
@@ -353,9 +401,17 @@ export function solveWireStructure(structure: WireStructure, options: WireSolveO
       }
     }
   }
-  for (let i = 0; i < electrons.length; i++) {
+  // Set whenever there are two or more electron subbands, i.e. any intersubband pair.
+  const lines = electronLines;
+  for (let i = 0; lines && i < electrons.length; i++) {
+    const mass = lines.mass(i);
     for (let j = i + 1; j < electrons.length; j++) {
-      transitions.push({ label: `${electrons[i]!.label}-${electrons[j]!.label}`, kind: 'intersubband', ...photon(electrons[j]!.energy_eV - electrons[i]!.energy_eV), overlap2: overlap2d(psi.electron[i]!, psi.electron[j]!, common.grid) });
+      const dE = electrons[j]!.energy_eV - electrons[i]!.energy_eV;
+      const d = lines.dipole(i, j);
+      transitions.push({
+        label: `${electrons[i]!.label}-${electrons[j]!.label}`, kind: 'intersubband', ...photon(dE), overlap2: overlap2d(psi.electron[i]!, psi.electron[j]!, common.grid),
+        dipole_x_nm: d.x, dipole_y_nm: d.y, oscillator_strength_x: oscillatorStrength(dE, d.x, mass.x), oscillator_strength_y: oscillatorStrength(dE, d.y, mass.y),
+      });
     }
   }
 
