@@ -1,6 +1,6 @@
 /**
  * A stored design scored again against its job's own targets. The store keeps each design's solve
- * result without wavefunctions (store format 2), so when a target reads them (overlaps, oscillator
+ * result without wavefunctions (store formats 2 and 3), so when a target reads them (overlaps, oscillator
  * strengths) the design is solved again from the job's spec and the design's values: the same
  * deterministic full solve the ranking made, so the evaluations equal those the search reported.
  */

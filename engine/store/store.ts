@@ -10,21 +10,26 @@
  * StoreErrors, never a job's failure.
  *
  * Durability: write-ahead log with synchronous = NORMAL (SQLite, "Write-Ahead Logging" and "PRAGMA
- * synchronous", sqlite.org): every write is a committed transaction the moment its call returns,
- * and a commit is in the operating system's hands at once, but the disk is flushed only when the log
- * is checkpointed, not on every commit. So a kill or crash of the process (SIGKILL included) loses
- * nothing committed; a power cut or an operating-system crash leaves a consistent store (never a
- * damaged one) that may lack the starts of its last moments, which a resume re-runs (a start is
+ * synchronous", sqlite.org): every write is a committed transaction the moment its call returns
+ * (one per finished start, one per finished job), and a commit is in the operating system's hands
+ * at once, but the disk is flushed only when the log is checkpointed (every ~4 MB of log, and on
+ * close), not on every commit. So a kill or crash of the process (SIGKILL included) loses nothing
+ * committed; a power cut or an operating-system crash leaves a consistent store (never a damaged
+ * one) that may lack the starts and jobs of its last moments, which a resume re-runs (a start is
  * deterministic, so the results do not change). An fsync per start cost 70–85 ms per job.
  *
  * A stored design keeps its full solve result except the sampled arrays (wavefunctions of a stack,
  * |ψ|² maps of a wire), which are recomputed from the spec and the design's values when a report
- * needs them: the rest is JSON compressed with zlib (format 2; format-1 stores hold plain JSON text
- * with the arrays, and are read as such).
+ * needs them. The rest is stored as its JSON skeleton, every number written 0 and the skeleton
+ * brotli-compressed, followed by the numbers as binary float64 (format 3): a design of pump-976
+ * (~1400 numbers) is packed in about a third of the time its JSON text took through a replacer and
+ * zlib, read back three times faster, and 16 % smaller (measured). Older records stay readable, each
+ * by its own form: zlib-compressed JSON (format 2), plain JSON text with the arrays (format 1).
  */
 import { accessSync, closeSync, constants, existsSync, fsyncSync, mkdirSync, openSync, readdirSync, readSync, renameSync, rmSync, statSync } from 'node:fs';
+import { createHash } from 'node:crypto';
 import { basename, dirname, join, resolve } from 'node:path';
-import { deflateSync, inflateSync } from 'node:zlib';
+import { brotliCompressSync, brotliDecompressSync, constants as zlib, inflateSync } from 'node:zlib';
 import Database from 'better-sqlite3';
 import { InputError } from '../errors.js';
 import type { StartOutcome } from '../design/start.js';
@@ -32,8 +37,12 @@ import type { DesignResult } from '../design/search.js';
 import { FolderLock } from './lock.js';
 import { toolVersion } from './version.js';
 
-/** 2: design results compressed and without sampled arrays; 1 (read too): plain JSON with them. */
-export const STORE_FORMAT = 2;
+/**
+ * 3: design results as a compressed skeleton and binary numbers; 2 (read too): zlib-compressed JSON
+ * without sampled arrays; 1 (read too): plain JSON text with them. A store opened for writing is
+ * marked with the current format, since it may then hold records older tools cannot read.
+ */
+export const STORE_FORMAT = 3;
 export const STORE_FILE = 'campaign.sqlite';
 const APPLICATION = 'wellsmith-campaign-store';
 
@@ -60,7 +69,7 @@ export interface DesignRecord {
   readonly satisfied: number;
   readonly start: number;
   readonly values_json: string;
-  /** The stored solve result: zlib-compressed JSON (format 2) or JSON text (format 1); read it with storedResult. */
+  /** The stored solve result: a packed record (format 3), zlib-compressed JSON (format 2) or JSON text (format 1); read it with storedResult. */
   readonly result_json: string | Buffer;
 }
 
@@ -299,6 +308,8 @@ export class RunStore {
     private readonly lock: FolderLock | undefined,
   ) {}
 
+  private readonly statements = new Map<string, Database.Statement>();
+
   /**
    * Opens (or creates) the run store of a folder (or an .sqlite path). For writing, the folder is
    * locked for this process (a second writer is refused, exit 2) and a missing store is created
@@ -331,7 +342,7 @@ export class RunStore {
           db.pragma('journal_mode = WAL');
           db.pragma('synchronous = NORMAL');
           db.pragma('foreign_keys = ON');
-          // A format-1 store takes format-2 records from now on; older tools must then refuse it.
+          // An older store takes current records from now on; older tools must then refuse it.
           if (Number(db.prepare("SELECT value FROM meta WHERE key = 'format'").pluck().get()) < STORE_FORMAT) {
             db.prepare("UPDATE meta SET value = ? WHERE key = 'format'").run(String(STORE_FORMAT));
           }
@@ -345,6 +356,13 @@ export class RunStore {
       lock.release();
       throw e;
     }
+  }
+
+  /** The statement of `text`, prepared once per open store: preparing costs as much as a small write. */
+  private sql(text: string): Database.Statement {
+    let statement = this.statements.get(text);
+    if (statement === undefined) this.statements.set(text, (statement = this.db.prepare(text)));
+    return statement;
   }
 
   /** Runs one store operation, naming it in any error of the environment. */
@@ -362,7 +380,7 @@ export class RunStore {
   }
 
   meta(key: string): string | undefined {
-    return this.guard('reading its meta table', () => this.db.prepare('SELECT value FROM meta WHERE key = ?').pluck().get(key) as string | undefined);
+    return this.guard('reading its meta table', () => this.sql('SELECT value FROM meta WHERE key = ?').pluck().get(key) as string | undefined);
   }
 
   /** Ties the store to one campaign (its hash); a store of another campaign is refused. */
@@ -373,8 +391,8 @@ export class RunStore {
     }
     if (have === undefined) {
       this.guard('recording its campaign', () => this.db.transaction(() => {
-        this.db.prepare('INSERT INTO meta (key, value) VALUES (?, ?)').run('campaign_hash', hash);
-        this.db.prepare('INSERT INTO meta (key, value) VALUES (?, ?)').run('campaign_title', title);
+        this.sql('INSERT INTO meta (key, value) VALUES (?, ?)').run('campaign_hash', hash);
+        this.sql('INSERT INTO meta (key, value) VALUES (?, ?)').run('campaign_title', title);
       })());
     }
   }
@@ -382,34 +400,34 @@ export class RunStore {
   /** Re-queues jobs left `running` by a crashed or killed run; returns how many. Writes only when there are some. */
   requeueStale(): number {
     return this.guard('re-queueing jobs left running', () => {
-      if (this.db.prepare("SELECT count(*) FROM jobs WHERE state = 'running'").pluck().get() === 0) return 0;
-      return this.db.prepare("UPDATE jobs SET state = 'queued', started_at = NULL WHERE state = 'running'").run().changes;
+      if (this.sql("SELECT count(*) FROM jobs WHERE state = 'running'").pluck().get() === 0) return 0;
+      return this.sql("UPDATE jobs SET state = 'queued', started_at = NULL WHERE state = 'running'").run().changes;
     });
   }
 
   /** running -> queued for one job: a run stopped by its environment gives the job back untouched. */
   requeue(name: string): void {
-    this.guard(`re-queueing job "${name}"`, () => this.db.prepare("UPDATE jobs SET state = 'queued', started_at = NULL WHERE name = ? AND state = 'running'").run(name));
+    this.guard(`re-queueing job "${name}"`, () => this.sql("UPDATE jobs SET state = 'queued', started_at = NULL WHERE name = ? AND state = 'running'").run(name));
   }
 
   /** failed -> queued for the named jobs (their stored starts are kept); returns how many. */
   retryFailed(names: readonly string[]): number {
     return this.guard('re-queueing failed jobs', () => {
-      const failed = new Set(this.db.prepare("SELECT name FROM jobs WHERE state = 'failed'").pluck().all() as string[]);
+      const failed = new Set(this.sql("SELECT name FROM jobs WHERE state = 'failed'").pluck().all() as string[]);
       const retry = names.filter((n) => failed.has(n));
       if (retry.length === 0) return 0;
-      const put = this.db.prepare("UPDATE jobs SET state = 'queued', status = NULL, message = NULL, started_at = NULL, finished_at = NULL WHERE name = ? AND state = 'failed'");
+      const put = this.sql("UPDATE jobs SET state = 'queued', status = NULL, message = NULL, started_at = NULL, finished_at = NULL WHERE name = ? AND state = 'failed'");
       this.db.transaction(() => { for (const n of retry) put.run(n); })();
       return retry.length;
     });
   }
 
   job(name: string): JobRecord | undefined {
-    return this.guard('reading a job', () => this.db.prepare('SELECT * FROM jobs WHERE name = ?').get(name) as JobRecord | undefined);
+    return this.guard('reading a job', () => this.sql('SELECT * FROM jobs WHERE name = ?').get(name) as JobRecord | undefined);
   }
 
   jobs(): JobRecord[] {
-    return this.guard('reading its jobs', () => this.db.prepare('SELECT * FROM jobs ORDER BY idx').all() as JobRecord[]);
+    return this.guard('reading its jobs', () => this.sql('SELECT * FROM jobs ORDER BY idx').all() as JobRecord[]);
   }
 
   /**
@@ -418,14 +436,14 @@ export class RunStore {
    */
   enqueue(jobs: readonly { name: string; index: number; kind: string; hash: string; spec: unknown; options: unknown; seed: number }[]): void {
     this.guard('queueing the jobs', () => {
-      const get = this.db.prepare('SELECT hash FROM jobs WHERE name = ?').pluck();
+      const get = this.sql('SELECT hash FROM jobs WHERE name = ?').pluck();
       const missing = jobs.filter((job) => {
         const have = get.get(job.name) as string | undefined;
         if (have !== undefined && have !== job.hash) throw new InputError('bad-value', `run store "${this.path}": job "${job.name}" was stored with spec hash ${have}, the campaign now gives ${job.hash}; use a new --out folder`);
         return have === undefined;
       });
       if (missing.length === 0) return;
-      const put = this.db.prepare(`INSERT INTO jobs (name, idx, kind, hash, state, spec_json, options_json, seed, tool_version, queued_at)
+      const put = this.sql(`INSERT INTO jobs (name, idx, kind, hash, state, spec_json, options_json, seed, tool_version, queued_at)
         VALUES (?, ?, ?, ?, 'queued', ?, ?, ?, ?, ?)`);
       this.db.transaction(() => {
         for (const job of missing) put.run(job.name, job.index, job.kind, job.hash, JSON.stringify(job.spec), JSON.stringify(job.options), job.seed, toolVersion(), now());
@@ -435,64 +453,66 @@ export class RunStore {
 
   /** queued -> running (counts the attempt). */
   markRunning(name: string): void {
-    const r = this.guard(`starting job "${name}"`, () => this.db.prepare("UPDATE jobs SET state = 'running', started_at = ?, attempts = attempts + 1 WHERE name = ? AND state = 'queued'").run(now(), name));
+    const r = this.guard(`starting job "${name}"`, () => this.sql("UPDATE jobs SET state = 'running', started_at = ?, attempts = attempts + 1 WHERE name = ? AND state = 'queued'").run(now(), name));
     if (r.changes !== 1) throw new Error(`run store: job "${name}" is not queued`);
   }
 
   /** Start outcomes stored so far for a job, by start index. */
   outcomes(job: string): StartOutcome[] {
     return this.guard(`reading the starts of job "${job}"`, () =>
-      (this.db.prepare('SELECT outcome_json FROM starts WHERE job = ? ORDER BY start').pluck().all(job) as string[]).map((s) => JSON.parse(s, reviveNonFinite) as StartOutcome));
+      (this.sql('SELECT outcome_json FROM starts WHERE job = ? ORDER BY start').pluck().all(job) as string[]).map((s) => JSON.parse(s, reviveNonFinite) as StartOutcome));
   }
 
   /** The checkpoint: one finished start, written once (a repeat of the same start is ignored). */
   saveOutcome(job: string, outcome: StartOutcome, seconds: number): void {
-    this.guard(`storing start ${outcome.index} of job "${job}"`, () => this.db.prepare('INSERT OR IGNORE INTO starts (job, start, loss, snapped_loss, evaluations, outcome_json, seconds, finished_at) VALUES (?, ?, ?, ?, ?, ?, ?, ?)')
+    this.guard(`storing start ${outcome.index} of job "${job}"`, () => this.sql('INSERT OR IGNORE INTO starts (job, start, loss, snapped_loss, evaluations, outcome_json, seconds, finished_at) VALUES (?, ?, ?, ?, ?, ?, ?, ?)')
       .run(job, outcome.index, finiteOrNull(outcome.loss), finiteOrNull(outcome.snapped.loss), outcome.evaluations, JSON.stringify(outcome, keepNonFinite), seconds, now()));
   }
 
   /** running -> done with the ranked designs, in one transaction. */
   finishJob(name: string, result: DesignResult): void {
     this.guard(`storing the designs of job "${name}"`, () => this.db.transaction(() => {
-      const r = this.db.prepare("UPDATE jobs SET state = 'done', finished_at = ?, status = ?, message = ?, parameter_set = ?, evaluations = ?, failures = ? WHERE name = ? AND state = 'running'")
+      const r = this.sql("UPDATE jobs SET state = 'done', finished_at = ?, status = ?, message = ?, parameter_set = ?, evaluations = ?, failures = ? WHERE name = ? AND state = 'running'")
         .run(now(), result.status, result.message, result.designs[0]?.result.parameterSet ?? null, result.evaluations, result.failures, name);
       if (r.changes !== 1) throw new Error(`run store: job "${name}" is not running`);
-      const put = this.db.prepare('INSERT INTO designs (job, rank, loss, satisfied, start, values_json, result_json) VALUES (?, ?, ?, ?, ?, ?, ?)');
+      const put = this.sql('INSERT INTO designs (job, rank, loss, satisfied, start, values_json, result_json) VALUES (?, ?, ?, ?, ?, ?, ?)');
       for (const d of result.designs) put.run(name, d.rank, d.loss, d.satisfied ? 1 : 0, d.start, JSON.stringify(d.values), packResult(d.result));
     })());
   }
 
   /** running -> failed with a one-line reason. */
   failJob(name: string, message: string): void {
-    this.guard(`recording the failure of job "${name}"`, () => this.db.prepare("UPDATE jobs SET state = 'failed', finished_at = ?, status = 'failed', message = ? WHERE name = ? AND state = 'running'").run(now(), message, name));
+    this.guard(`recording the failure of job "${name}"`, () => this.sql("UPDATE jobs SET state = 'failed', finished_at = ?, status = 'failed', message = ? WHERE name = ? AND state = 'running'").run(now(), message, name));
   }
 
   designs(job?: string): DesignRecord[] {
     return this.guard('reading its designs', () => (job === undefined
-      ? this.db.prepare('SELECT d.* FROM designs d JOIN jobs j ON j.name = d.job ORDER BY j.idx, d.rank').all()
-      : this.db.prepare('SELECT * FROM designs WHERE job = ? ORDER BY rank').all(job)) as DesignRecord[]);
+      ? this.sql('SELECT d.* FROM designs d JOIN jobs j ON j.name = d.job ORDER BY j.idx, d.rank').all()
+      : this.sql('SELECT * FROM designs WHERE job = ? ORDER BY rank').all(job)) as DesignRecord[]);
   }
 
   /**
    * Checks the whole store before its records are copied elsewhere: SQLite's integrity check
-   * (b-trees, pages, indexes), then that every stored JSON text parses. A damaged store is refused
-   * with a StoreError naming it (exit 2).
+   * (b-trees, pages, indexes), then that every stored record reads back: each JSON text parses, each
+   * compressed result inflates, each packed result passes its check. A damaged store is refused with
+   * a StoreError naming it (exit 2).
    */
   verify(): void {
     const damaged = (why: string): never => {
       throw new StoreError('damaged', `run store "${this.path}" is damaged: ${why}; ${ADVICE.damaged}`);
     };
     this.guard('checking its integrity', () => {
-      const problems = this.db.prepare('PRAGMA integrity_check(5)').pluck().all() as string[];
+      const problems = this.sql('PRAGMA integrity_check(5)').pluck().all() as string[];
       if (problems.length !== 1 || problems[0] !== 'ok') damaged(`SQLite integrity check: ${problems.join('; ')}`);
       const columns: readonly [string, readonly string[], string][] = [
         ['jobs', ['spec_json', 'options_json'], 'name'], ['starts', ['outcome_json'], "job || ' start ' || start"], ['designs', ['values_json', 'result_json'], "job || ' rank ' || rank"]];
       for (const [table, fields, key] of columns) {
-        for (const row of this.db.prepare(`SELECT ${key} AS key, ${fields.join(', ')} FROM ${table}`).iterate() as IterableIterator<Record<string, unknown>>) {
+        for (const row of this.sql(`SELECT ${key} AS key, ${fields.join(', ')} FROM ${table}`).iterate() as IterableIterator<Record<string, unknown>>) {
           for (const f of fields) {
             try {
               const v = row[f];
-              JSON.parse(Buffer.isBuffer(v) ? inflateSync(v).toString('utf8') : String(v));
+              if (f === 'result_json') storedResult({ result_json: v as string | Buffer });
+              else JSON.parse(String(v));
             } catch {
               damaged(`${table}.${f} of ${String(row['key'])} is not valid JSON${Buffer.isBuffer(row[f]) ? ' (its compressed form is damaged)' : ''}`);
             }
@@ -516,23 +536,23 @@ export class RunStore {
       for (const j of other.jobs()) {
         const mine = this.job(j.name);
         if (mine && mine.hash !== j.hash) throw new InputError('bad-value', `merge: job "${j.name}" has spec hash ${mine.hash} in "${this.path}" but ${j.hash} in "${other.path}"; these are runs of different campaigns`);
-        const full = other.db.prepare('SELECT * FROM jobs WHERE name = ?').get(j.name) as Record<string, unknown>;
+        const full = other.sql('SELECT * FROM jobs WHERE name = ?').get(j.name) as Record<string, unknown>;
         const state = full['state'] === 'running' ? 'queued' : full['state'];
         const finished = state === 'done' || state === 'failed';
         if (!mine || (finished && (mine.state === 'queued' || mine.state === 'running'))) {
           const cols = Object.keys(full);
-          this.db.prepare(`INSERT OR REPLACE INTO jobs (${cols.join(', ')}) VALUES (${cols.map(() => '?').join(', ')})`)
+          this.sql(`INSERT OR REPLACE INTO jobs (${cols.join(', ')}) VALUES (${cols.map(() => '?').join(', ')})`)
             .run(...cols.map((c) => (c === 'state' ? state : full[c])));
           if (state === 'done') {
-            const put = this.db.prepare('INSERT INTO designs (job, rank, loss, satisfied, start, values_json, result_json) VALUES (?, ?, ?, ?, ?, ?, ?)');
+            const put = this.sql('INSERT INTO designs (job, rank, loss, satisfied, start, values_json, result_json) VALUES (?, ?, ?, ?, ?, ?, ?)');
             for (const d of other.designs(j.name)) put.run(d.job, d.rank, d.loss, d.satisfied, d.start, d.values_json, d.result_json);
           }
           jobs++;
         }
-        const rows = other.db.prepare('SELECT * FROM starts WHERE job = ?').all(j.name) as Record<string, unknown>[];
+        const rows = other.sql('SELECT * FROM starts WHERE job = ?').all(j.name) as Record<string, unknown>[];
         for (const s of rows) {
           const cols = Object.keys(s);
-          starts += this.db.prepare(`INSERT OR IGNORE INTO starts (${cols.join(', ')}) VALUES (${cols.map(() => '?').join(', ')})`).run(...cols.map((c) => s[c])).changes;
+          starts += this.sql(`INSERT OR IGNORE INTO starts (${cols.join(', ')}) VALUES (${cols.map(() => '?').join(', ')})`).run(...cols.map((c) => s[c])).changes;
         }
       }
     })());
@@ -545,9 +565,9 @@ export class RunStore {
    */
   snapshot(): { jobs: unknown[]; starts: unknown[]; designs: unknown[] } {
     return this.guard('reading its records', () => ({
-      jobs: this.db.prepare('SELECT name, idx, kind, hash, state, seed, status, message, parameter_set, evaluations, failures FROM jobs ORDER BY idx').all(),
-      starts: this.db.prepare('SELECT job, start, outcome_json FROM starts ORDER BY job, start').all(),
-      designs: this.db.prepare('SELECT job, rank, loss, satisfied, start, values_json, result_json FROM designs ORDER BY job, rank').all(),
+      jobs: this.sql('SELECT name, idx, kind, hash, state, seed, status, message, parameter_set, evaluations, failures FROM jobs ORDER BY idx').all(),
+      starts: this.sql('SELECT job, start, outcome_json FROM starts ORDER BY job, start').all(),
+      designs: this.sql('SELECT job, rank, loss, satisfied, start, values_json, result_json FROM designs ORDER BY job, rank').all(),
     }));
   }
 }
@@ -555,23 +575,95 @@ export class RunStore {
 /** The sampled arrays a stored result leaves out: a stack's wavefunctions, a wire's |ψ|² maps (recomputed for reports). */
 const SAMPLED = new Set(['wavefunctions', 'maps']);
 
-/** A design's solve result as stored: JSON without its sampled arrays, non-finite numbers as strings, zlib-compressed. */
+/**
+ * Format 3's first byte. A format-2 record is a zlib stream, whose first byte has 8 (deflate) in its
+ * low four bits (RFC 1950, section 2.2), so the two are never confused.
+ */
+const PACKED = 3;
+/** The skeleton is mostly repeated keys: brotli at quality 1 takes a 34 kB one to 1.9 kB in 77 µs, zlib at level 1 to 2.2 kB in 109 µs (measured, pump-976). */
+const SKELETON_BROTLI = { params: { [zlib.BROTLI_PARAM_QUALITY]: 1 } };
+
+/** Bytes before a packed record's skeleton: the format byte, the check, the skeleton's length. */
+const HEAD = 9;
+
+/** The check of a packed record: the first 4 bytes of the SHA-256 of all that follows it (neither brotli nor the raw numbers carry one of their own). */
+const checkOf = (record: Buffer): Buffer => createHash('sha256').update(record.subarray(5)).digest().subarray(0, 4);
+
+/**
+ * A design's solve result as stored (format 3), without its sampled arrays: the byte 3; its check
+ * (4 bytes, checkOf); the length n of the skeleton (uint32, little-endian); the skeleton, i.e. the
+ * result's JSON text with every number written 0, brotli-compressed (n bytes); then the numbers as
+ * float64 (little-endian) in the skeleton's order. Numbers are kept bit for bit, Infinity, NaN and −0
+ * included.
+ */
 function packResult(result: object): Buffer {
-  const text = JSON.stringify(result, function (this: unknown, key: string, v: unknown) {
-    return this === result && SAMPLED.has(key) ? undefined : keepNonFinite(key, v);
-  });
-  // The fastest level: 0.6 ms against 0.9 ms at the default for a 48 kB result, 9 % larger (measured, pump-976).
-  return deflateSync(Buffer.from(text, 'utf8'), { level: 1 });
+  const numbers: number[] = [];
+  const kept = Object.fromEntries(Object.entries(result).filter(([k]) => !SAMPLED.has(k)));
+  const skeleton = brotliCompressSync(Buffer.from(JSON.stringify(liftNumbers(kept, numbers)), 'utf8'), SKELETON_BROTLI);
+  const out = Buffer.allocUnsafe(HEAD + skeleton.length + 8 * numbers.length);
+  out[0] = PACKED;
+  out.writeUInt32LE(skeleton.length, 5);
+  skeleton.copy(out, HEAD);
+  let at = HEAD + skeleton.length;
+  for (const x of numbers) at = out.writeDoubleLE(x, at);
+  checkOf(out).copy(out, 1);
+  return out;
+}
+
+/** A copy of plain data with every number replaced by 0 and appended to `numbers`, in JSON's order of keys. */
+function liftNumbers(v: unknown, numbers: number[]): unknown {
+  if (typeof v === 'number') {
+    numbers.push(v);
+    return 0;
+  }
+  if (typeof v !== 'object' || v === null) return v;
+  if (Array.isArray(v)) {
+    const a = new Array<unknown>(v.length);
+    for (let i = 0; i < v.length; i++) a[i] = liftNumbers(v[i], numbers);
+    return a;
+  }
+  const o: Record<string, unknown> = {};
+  for (const k of Object.keys(v)) {
+    const x = (v as Record<string, unknown>)[k];
+    if (x === undefined) continue;
+    // A key "__proto__" (a user's variable may be so named) must stay a key: an assignment would set the prototype.
+    if (k === '__proto__') Object.defineProperty(o, k, { value: liftNumbers(x, numbers), enumerable: true, writable: true, configurable: true });
+    else o[k] = liftNumbers(x, numbers);
+  }
+  return o;
+}
+
+/** Puts the stored numbers back into a parsed skeleton, in place, in the order liftNumbers took them; returns the offset after the last. */
+function fillNumbers(o: Record<string | number, unknown>, record: Buffer, at: number): number {
+  for (const k of Array.isArray(o) ? o.keys() : Object.keys(o)) {
+    const x = o[k];
+    if (typeof x === 'number') {
+      if (at + 8 > record.length) throw new SyntaxError('a packed result has fewer numbers than its skeleton');
+      o[k] = record.readDoubleLE(at); // JSON.parse made every key an own property, "__proto__" too
+      at += 8;
+    } else if (typeof x === 'object' && x !== null) {
+      at = fillNumbers(x as Record<string | number, unknown>, record, at);
+    }
+  }
+  return at;
 }
 
 /**
- * A stored design's solve result as plain data: format 2 (compressed, without wavefunctions or
- * maps) or format 1 (JSON text with them); non-finite numbers revived. Throws a SyntaxError or a
- * zlib error for a damaged record.
+ * A stored design's solve result as plain data, from any format: 3 (packed, without wavefunctions
+ * or maps), 2 (zlib-compressed JSON without them) or 1 (JSON text with them). Throws a SyntaxError
+ * or a zlib error for a damaged record.
  */
 export function storedResult(d: Pick<DesignRecord, 'result_json'>): Record<string, unknown> {
-  const text = Buffer.isBuffer(d.result_json) ? inflateSync(d.result_json).toString('utf8') : d.result_json;
-  return JSON.parse(text, reviveNonFinite) as Record<string, unknown>;
+  const r = d.result_json;
+  if (!Buffer.isBuffer(r)) return JSON.parse(r, reviveNonFinite) as Record<string, unknown>;
+  if (r[0] !== PACKED) return JSON.parse(inflateSync(r).toString('utf8'), reviveNonFinite) as Record<string, unknown>;
+  if (r.length < HEAD || !checkOf(r).equals(r.subarray(1, 5))) throw new SyntaxError('a packed result fails its check');
+  const n = r.readUInt32LE(5);
+  if (HEAD + n > r.length) throw new SyntaxError('a packed result is cut short');
+  const result = JSON.parse(brotliDecompressSync(r.subarray(HEAD, HEAD + n)).toString('utf8')) as Record<string, unknown>;
+  const end = fillNumbers(result, r, HEAD + n);
+  if (end !== r.length) throw new SyntaxError('a packed result has more numbers than its skeleton');
+  return result;
 }
 
 /** JSON has no Infinity or NaN: an unevaluable start's loss is kept as the string "Infinity" and read back as the number. */

@@ -1,8 +1,8 @@
 /**
- * Stored designs (store format 2): compressed, without sampled arrays, each well under 20 KB; a
+ * Stored designs (store formats 2 and 3): compressed, without sampled arrays, each well under 20 KB; a
  * report recomputes what a target needs from the spec and the design's values (the same
  * deterministic solve as the search's, so it scores identically); a format-1 store (plain JSON
- * text with wavefunctions) is still read, and is marked format 2 once written to.
+ * text with wavefunctions) is still read, and is marked with the current format once written to.
  */
 import { writeFileSync } from 'node:fs';
 import { join } from 'node:path';
@@ -61,7 +61,7 @@ describe('compact stored designs', () => {
     expect(job.targets.some((t) => /oscillator/.test(t.label) && Number.isFinite(t.achieved))).toBe(true);
   });
 
-  it('a format-1 store (JSON text with wavefunctions) is read, and marked format 2 once opened for writing', () => {
+  it('a format-1 store (JSON text with wavefunctions) is read, and marked with the current format once opened for writing', () => {
     const copy = join(tempDir('format1'), 'run');
     const store = RunStore.open(out, { readonly: true });
     const rows = store.designs();
