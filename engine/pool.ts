@@ -138,6 +138,12 @@ export interface PoolOptions {
   readonly onThreadResult?: (index: number) => void;
   /** Called after each finished task with the count done so far. */
   readonly onProgress?: (done: number, total: number, last: WorkerResult) => void;
+  /**
+   * Called on this thread after each step of a task it runs itself (a design start's Nelder–Mead
+   * evaluations), with the task's index: while this thread computes, timers cannot fire, so a
+   * progress display is kept current from here. Never called for tasks a worker thread runs.
+   */
+  readonly onStep?: (task: number) => void;
 }
 
 export async function runTasks(tasks: readonly WorkerTask[], options: PoolOptions): Promise<WorkerResult[]> {
@@ -181,7 +187,8 @@ export async function runTasks(tasks: readonly WorkerTask[], options: PoolOption
         steals++;
       }
       if (i < 0) return;
-      finish(i, unwrap(work(tasks[i]!)));
+      const step = options.onStep;
+      finish(i, unwrap(work(tasks[i]!, step && (() => step(i)))));
       // Let pool results, timers (progress display) and signals in between tasks.
       await new Promise((resolve) => setImmediate(resolve));
     }

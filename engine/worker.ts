@@ -14,16 +14,18 @@ export type WorkerResponse =
   | { readonly type: 'ok'; readonly value: WorkerResult; readonly thread: number }
   | { readonly type: 'error'; readonly name: string; readonly code: string | undefined; readonly message: string; readonly thread: number };
 
-export function handle(task: WorkerTask): WorkerResult {
+/** Runs one task; `onStep` is called after each step of a design start (each Nelder–Mead evaluation) on this thread; other tasks report none. */
+export function handle(task: WorkerTask, onStep?: () => void): WorkerResult {
   switch (task.type) {
-    case 'design-start': return runStart(task);
+    case 'design-start': return runStart(task, onStep);
     case 'tolerance-batch': return runBatch(task);
   }
 }
 
-export default function work(task: WorkerTask): WorkerResponse {
+/** The thread entry point (piscina calls it with the task alone); the pool's own lane passes `onStep` (see handle). */
+export default function work(task: WorkerTask, onStep?: () => void): WorkerResponse {
   try {
-    return { type: 'ok', value: handle(task), thread: threadId };
+    return { type: 'ok', value: handle(task, onStep), thread: threadId };
   } catch (e) {
     const err = e instanceof Error ? e : new Error(String(e));
     return { type: 'error', name: err.name, code: (err as { code?: string }).code, message: err.message, thread: threadId };

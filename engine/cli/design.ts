@@ -34,6 +34,9 @@ export interface DesignArgs {
   readonly robust?: boolean;
 }
 
+/** Least time (ms) between two bar updates from a start's evaluations. */
+const STEP_REDRAW_MS = 100;
+
 /** Monte Carlo samples per design for --robust: yield to about ±3 % (binomial σ at 50 %). */
 export const ROBUST_SAMPLES = 200;
 
@@ -148,13 +151,34 @@ export async function runDesign(args: DesignArgs): Promise<Outcome> {
     const evaluations = args.evaluations ?? defaults.maxEvaluations;
     const each = evaluationSeconds(loaded.spec);
     noteLongWork('this design', (each * starts * evaluations) / Math.min(args.workers, starts), `${starts} starts × up to ${evaluations} evaluations at ${each.toPrecision(2)} s each on ${Math.min(args.workers, starts)} worker${args.workers > 1 ? 's' : ''}; fewer --starts or --evaluations take less`);
+    // While this thread runs a start itself (every start of a one-worker run, the first start of
+    // any), timers cannot fire: the bar is kept current from its evaluations instead, at most one
+    // redraw per STEP_REDRAW_MS (a well's evaluation takes a fraction of a millisecond).
+    let finished = 0;
+    let stepping = -1;
+    let steps = 0;
+    let redrawn = 0;
+    const bestText = (): string => (Number.isFinite(best) ? ` · best loss ${sig(best, 3)}` : '');
     const result = await design(loaded.spec, {
       starts, seed: args.seed, top: args.top, workers: args.workers, compositionStep: args.step, maxEvaluations: evaluations,
       onProgress: (done, total, last) => {
+        finished = done;
         if (last.type === 'design-start') best = Math.min(best, last.snapped.loss);
         bar.update(done, total, `best loss ${sig(best, 3)}`);
         log.finished(done, total, `start ${done}/${total} done · best loss ${sig(best, 3)} · ${total - done} to go`);
       },
+      onStep: (task) => {
+        if (task !== stepping) {
+          stepping = task;
+          steps = 0;
+        }
+        steps++;
+        const now = Date.now();
+        if (now - redrawn < STEP_REDRAW_MS) return;
+        redrawn = now;
+        bar.update(finished, starts, `start ${task + 1}: ${steps} of up to ${evaluations} evaluations${bestText()}`);
+      },
+      onSolve: (done, total) => bar.update(finished, starts, `ranking: full solve of design ${done + 1} of ${total}${bestText()}`),
     });
     const robust = args.robust ? await robustRank(loaded.spec, result, { ...DEFAULT_TOLERANCE, samples: ROBUST_SAMPLES, seed: args.seed, workers: args.workers, islands: false }) : undefined;
     bar.stop();

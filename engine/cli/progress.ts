@@ -29,9 +29,16 @@ export function progressBar(label: string, delayMs = PROGRESS_DELAY_MS): Progres
   const start = (): void => {
     if (bar || !last) return;
     const cliProgress = load();
+    // Time counts from the start of the work, not from the bar's first drawing 2 s later, and the
+    // remaining time is only estimated once something is done (cli-progress prints "INF" before).
+    const time = (t: number, options: cliProgressModule.Options): string => cliProgress.Format.TimeFormat(Math.round(t), options, 1);
     bar = new cliProgress.SingleBar({
       stream: process.stderr,
-      format: `${label} [{bar}] {value}/{total} · {duration_formatted} · eta {eta_formatted} · {note}`,
+      format: (options, params, payload: { note?: string }) => {
+        const elapsed = (Date.now() - created) / 1000;
+        const eta = params.value > 0 ? time((elapsed * (params.total - params.value)) / params.value, options) : '–';
+        return `${label} [${cliProgress.Format.BarFormat(params.progress, options)}] ${params.value}/${params.total} · ${time(elapsed, options)} · eta ${eta} · ${payload.note ?? ''}`;
+      },
       hideCursor: true,
       clearOnComplete: true,
     }, cliProgress.Presets.shades_classic);

@@ -29,6 +29,10 @@ export interface DesignOptions {
   /** Nelder–Mead evaluation budget per start. */
   readonly maxEvaluations: number;
   readonly onProgress?: PoolOptions['onProgress'];
+  /** Called after each Nelder–Mead evaluation of a start this thread runs, with the start's index (PoolOptions.onStep). */
+  readonly onStep?: PoolOptions['onStep'];
+  /** Called before each full solve of the ranking, with the solves done and the designs to solve (a wire's take seconds each on its fine grid). */
+  readonly onSolve?: (done: number, total: number) => void;
 }
 
 export const DEFAULT_DESIGN_OPTIONS: Omit<DesignOptions, 'workers'> = { starts: 16, seed: 1, top: 5, compositionStep: 0.001, maxEvaluations: 300 };
@@ -129,7 +133,7 @@ export function designTasks(spec: Spec, options: Pick<DesignOptions, 'starts' | 
 /** Ranked, growable designs for a spec's targets. */
 export async function design(spec: Spec, options: DesignOptions): Promise<DesignResult> {
   const tasks = designTasks(spec, options);
-  const outcomes = (await runTasks(tasks, { workers: options.workers, ...(options.onProgress ? { onProgress: options.onProgress } : {}) })) as StartOutcome[];
+  const outcomes = (await runTasks(tasks, { workers: options.workers, onProgress: options.onProgress, onStep: options.onStep })) as StartOutcome[];
   return rankDesigns(spec, outcomes, options);
 }
 
@@ -140,7 +144,7 @@ export async function design(spec: Spec, options: DesignOptions): Promise<Design
  * kept (duplicates.ts), re-solve the top K in full, and order those: designs meeting every target
  * first, by the preferences (lexicographic with ties), then by loss, then by start index.
  */
-export function rankDesigns(spec: Spec, outcomes: readonly StartOutcome[], options: Pick<DesignOptions, 'top' | 'seed' | 'starts'> & { readonly compositionStep?: number }): DesignResult {
+export function rankDesigns(spec: Spec, outcomes: readonly StartOutcome[], options: Pick<DesignOptions, 'top' | 'seed' | 'starts' | 'onSolve'> & { readonly compositionStep?: number }): DesignResult {
   const problem = prepareDesign(spec);
   const step = options.compositionStep ?? DEFAULT_DESIGN_OPTIONS.compositionStep;
   const evaluations = outcomes.reduce((a, o) => a + o.evaluations, 0);
@@ -156,7 +160,8 @@ export function rankDesigns(spec: Spec, outcomes: readonly StartOutcome[], optio
   }
 
   const prefs = problem.preferences;
-  const solved = kept.map(({ o }) => {
+  const solved = kept.map(({ o }, k) => {
+    options.onSolve?.(k, kept.length);
     const result = fullSolve(problem, o.snapped.values);
     const scored = scoreTargets(problem.targets, result);
     return { o, result, scored, prefs: isWireSolve(result) ? [] : preferenceValues(prefs, result) };

@@ -45,13 +45,19 @@ export interface StartOutcome {
 const X_TOLERANCE = 1e-3;
 const F_TOLERANCE = 1e-6;
 
-export function runStart(task: StartTask): StartOutcome {
+/**
+ * Runs one start. `onEvaluation`, if given, is called after each Nelder–Mead evaluation on the
+ * thread running the start (the command line's progress bar while this thread is busy); it sees
+ * nothing and changes nothing computed.
+ */
+export function runStart(task: StartTask, onEvaluation?: () => void): StartOutcome {
   const problem = prepareDesign(task.spec);
   let failures = 0;
   const bounds = problem.variables.map((v) => [v.from, v.to] as const);
   const nm = minimize((x) => {
     const e = evaluateDesign(problem, valuesOf(problem.variables, x));
     if (!e.ok) failures++;
+    onEvaluation?.();
     return e.score;
     // With preferences a met target is only the start: the search goes on along the preferred direction.
   }, task.x0, { bounds, maxEvaluations: task.maxEvaluations, xTolerance: X_TOLERANCE, fTolerance: F_TOLERANCE, stopValue: problem.preferences.length ? -Infinity : F_TOLERANCE });

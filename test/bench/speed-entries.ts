@@ -37,7 +37,7 @@ interface JobRecords { readonly outcomes: readonly StartOutcome[]; readonly resu
 function jobRecords(specFile: string, options: { starts: number; top: number; seed: number; maxEvaluations: number; compositionStep: number }): JobRecords {
   const { spec } = loadSpecFile(join(ROOT, specFile));
   const t0 = performance.now();
-  const outcomes = designTasks(spec, options).map(runStart);
+  const outcomes = designTasks(spec, options).map((t) => runStart(t));
   const result = rankDesigns(spec, outcomes, options);
   return { outcomes, result, compute_ms: performance.now() - t0 };
 }
@@ -183,7 +183,7 @@ function campaignStoreEntry(): BenchEntry {
       const campaign = loadCampaignFile(join(ROOT, 'runs/campaign-telecom.yaml'));
       const records = campaign.jobs.map((job): JobRecords => {
         const t0 = performance.now();
-        const outcomes = designTasks(job.spec, job.options).map(runStart);
+        const outcomes = designTasks(job.spec, job.options).map((t) => runStart(t));
         return { outcomes, result: rankDesigns(job.spec, outcomes, job.options), compute_ms: performance.now() - t0 };
       });
       return {

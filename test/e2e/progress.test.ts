@@ -11,22 +11,7 @@ import { cli } from '../../engine/cli/app.js';
 import { durationText, noteLongWork, progressBar } from '../../engine/cli/progress.js';
 import { MAX_LAYERS } from '../../engine/structure.js';
 import { spawnCli } from '../campaign/helpers.js';
-
-/** Runs f with stderr taken for a terminal and its writes captured. */
-async function onTerminal(f: () => Promise<void> | void): Promise<string> {
-  const chunks: string[] = [];
-  const write = process.stderr.write.bind(process.stderr);
-  const tty = process.stderr.isTTY;
-  process.stderr.isTTY = true;
-  process.stderr.write = ((c: string | Uint8Array) => { chunks.push(String(c)); return true; }) as typeof process.stderr.write;
-  try {
-    await f();
-  } finally {
-    process.stderr.write = write;
-    process.stderr.isTTY = tty;
-  }
-  return chunks.join('');
-}
+import { onTerminal } from './terminal.js';
 
 describe('runs that never go silent', () => {
   it('the progress bar draws on a terminal once the work passes the delay, and not for quick work', async () => {
@@ -40,6 +25,15 @@ describe('runs that never go silent', () => {
     expect(slow).toMatch(/solve \[.*\] 2\/4 .* heavy_hole states/);
     const quick = await onTerminal(() => { const bar = progressBar('solve', 50); bar.update(4, 4, 'done'); bar.stop(); });
     expect(quick).toBe('');
+    // Drawn before anything is done (a long first task): no remaining time is guessed.
+    const first = await onTerminal(async () => {
+      const bar = progressBar('design', 20);
+      await new Promise((r) => setTimeout(r, 60));
+      bar.update(0, 8, 'start 1: 17 of up to 60 evaluations');
+      bar.stop();
+    });
+    expect(first).toMatch(/design \[.*\] 0\/8 · \d+s · eta – · start 1: 17 of up to 60 evaluations/);
+    expect(first).not.toMatch(/INF|NF/);
   });
 
   it('report --tolerance draws the bar of its Monte Carlo samples on a terminal once they run past the delay', async () => {
