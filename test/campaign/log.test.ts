@@ -8,6 +8,7 @@
 import { describe, expect, it } from 'vitest';
 import { isoSecond, LOG_INTERVAL_MS, progressLog } from '../../engine/cli/progress.js';
 import { spawnCli, tempDir, TINY_JOBS, tinyCampaign } from './helpers.js';
+import { captureStderr } from '../e2e/terminal.js';
 
 const ISO_UTC = /^\d{4}-\d{2}-\d{2}T\d{2}:\d{2}:\d{2}Z$/;
 
@@ -23,21 +24,8 @@ function logLines(stderr: string, label: string): { t: number; text: string }[] 
   });
 }
 
-/** Runs f with stderr taken for a pipe (not a terminal) and its writes captured. */
-async function onPipe(f: () => Promise<void> | void, tty = false): Promise<string> {
-  const chunks: string[] = [];
-  const write = process.stderr.write.bind(process.stderr);
-  const was = process.stderr.isTTY;
-  process.stderr.isTTY = tty;
-  process.stderr.write = ((c: string | Uint8Array) => { chunks.push(String(c)); return true; }) as typeof process.stderr.write;
-  try {
-    await f();
-  } finally {
-    process.stderr.write = write;
-    process.stderr.isTTY = was;
-  }
-  return chunks.join('');
-}
+/** Runs f with stderr taken for a pipe (or, with tty, a terminal) and its writes captured. */
+const onPipe = (f: () => Promise<void> | void, tty = false): Promise<string> => captureStderr(f, tty);
 
 const sleep = (ms: number): Promise<void> => new Promise((r) => setTimeout(r, ms));
 
