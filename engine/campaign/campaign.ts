@@ -12,6 +12,7 @@ import { z } from 'zod';
 import { InputError } from '../errors.js';
 import { DEFAULT_DESIGN_OPTIONS, type DesignOptions } from '../design/search.js';
 import { fieldPath, parseYamlText, readInputText, validateSpec } from '../input/load.js';
+import { specWarnings } from '../input/check.js';
 import { describeIssues } from '../input/issues.js';
 import type { Spec } from '../input/schema.js';
 import { splitQuantity } from '../input/units.js';
@@ -170,6 +171,7 @@ export function expandCampaign(file: CampaignFile, baseSpec: unknown, origin: st
   for (const axis of axes) combos = combos.flatMap((c) => axis.values.map((v) => [...c, v]));
   const base = jobOptions(file);
   const seen = new Map<string, number>();
+  const specNotes = new Map<string, string>();
   const jobs = combos.map((combo, index): Job => {
     let spec: unknown = baseSpec;
     let options = base;
@@ -197,8 +199,11 @@ export function expandCampaign(file: CampaignFile, baseSpec: unknown, origin: st
       }
       throw e;
     }
+    // The spec's own warnings (bare numbers read in a default unit…), once each however many jobs share them.
+    for (const w of specWarnings(valid)) if (!specNotes.has(w)) specNotes.set(w, name);
     return { index, name, kind: file.kind, spec: valid, options, hash: hash16(canonicalJson({ kind: file.kind, spec: valid, options })) };
   });
+  for (const [w, job] of specNotes) warnings.push(`spec${jobs.length > 1 ? ` (job "${job}" and any others it applies to)` : ''}: ${w}`);
   return { title: file.title ?? origin, origin, jobs, hash: hash16(jobs.map((j) => `${j.name}:${j.hash}`).join('\n')), warnings };
 }
 

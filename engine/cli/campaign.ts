@@ -115,6 +115,8 @@ export async function runCampaignCommand(args: CampaignArgs): Promise<Outcome> {
     // A finished run folder may be read-only (an archive): the store says when something needs writing.
     ensureFolder(out, '--out', { writable: false });
     store = RunStore.open(out);
+    // Said before the work, not after it: an overnight run's log shows them at its top.
+    process.stderr.write(success('', EXIT.ok, campaign.warnings).stderr);
     process.on('SIGINT', onSignal);
     process.on('SIGTERM', onSignal);
     const summary = await runCampaign(campaign, store, {
@@ -127,11 +129,11 @@ export async function runCampaignCommand(args: CampaignArgs): Promise<Outcome> {
     });
     bar.stop();
     if (summary.status === 'stopped') {
-      const stopped = success('', 128 + (signal === 'SIGTERM' ? 15 : 2), campaign.warnings);
+      const stopped = success('', 128 + (signal === 'SIGTERM' ? 15 : 2));
       return { ...stopped, stderr: `${stopped.stderr}wellsmith: campaign stopped by ${signal ?? 'request'} after the last finished start; every finished start is stored in ${store.path}. Resume with: ${resume}\n` };
     }
     if (args.export === 'csv') writeFileAtomic(join(out, 'designs.csv'), designsCsv(store));
-    return success(`${args.json ? campaignJson(store, summary, campaign.warnings) : describe(store, summary, shard)}\n`, summary.failedStored.length > 0 ? EXIT.physics : EXIT.ok, campaign.warnings);
+    return success(`${args.json ? campaignJson(store, summary, campaign.warnings) : describe(store, summary, shard)}\n`, summary.failedStored.length > 0 ? EXIT.physics : EXIT.ok);
   } catch (e) {
     bar.stop();
     // The run stopped on its machine (disk full, I/O error): nothing is lost, the same command resumes.

@@ -5,13 +5,13 @@
  * the two ends on the grid, while an end on the grid (up to floating-point residue) draws none.
  * Expected values are worked out by hand from the ranges written below.
  */
-import { existsSync, writeFileSync } from 'node:fs';
+import { existsSync, readFileSync, writeFileSync } from 'node:fs';
 import { join } from 'node:path';
 import fc from 'fast-check';
 import { describe, expect, it } from 'vitest';
 import { parseCampaignText } from '../../engine/campaign/campaign.js';
 import { cli } from '../../engine/cli/app.js';
-import { ROOT, tempDir } from './helpers.js';
+import { ROOT, spawnCli, tempDir } from './helpers.js';
 
 const SPEC = `spec: ${JSON.stringify(join(ROOT, 'runs/telecom-1550-inp.yaml'))}`;
 
@@ -93,4 +93,21 @@ describe('a sweep range whose end is off its step grid', () => {
     expect(o.stdout).toMatch(/^3 jobs in 2 shards/);
     expect(o.stderr).toBe('wellsmith: warning: sweep.targets[0].wavelength: the range from 1480 nm to 1600 nm in steps of 50 nm ends at 1580 nm, short of 1600 nm, which is not on the step grid; write to: 1580 nm or to: 1630 nm, or pick a step that divides 120 nm\n');
   });
+});
+
+describe('warnings of a campaign that runs', () => {
+  it('come first, before the first job ends, once each: the off-grid range and the base spec\'s bare number', async () => {
+    const dir = tempDir('warnings-first');
+    const spec = join(dir, 'base.yaml');
+    writeFileSync(spec, readFileSync(join(ROOT, 'runs/telecom-1550-inp.yaml'), 'utf8').replace(/^temperature: .*$/m, 'temperature: 300'));
+    const file = join(dir, 'c.yaml');
+    writeFileSync(file, [`spec: ${JSON.stringify(spec)}`, 'design: { starts: 2, top: 1, seed: 3, evaluations: 15 }', 'sweep:', '  targets[0].wavelength: { from: 1500 nm, to: 1560 nm, step: 40 nm }', ''].join('\n'));
+    const ended = await spawnCli(['campaign', file, '--out', join(dir, 'run')]);
+    expect(ended.code, ended.stderr).toBe(0);
+    const lines = ended.stderr.trim().split('\n');
+    expect(lines[0]).toMatch(/^wellsmith: warning: sweep\.targets\[0\]\.wavelength: the range from 1500 nm to 1560 nm in steps of 40 nm ends at 1540 nm/);
+    expect(lines[1]).toMatch(/^wellsmith: warning: spec \(job "wavelength=1500nm" and any others it applies to\): temperature: .*K/);
+    expect(lines.filter((l) => /warning/.test(l))).toHaveLength(2);
+    expect(lines.slice(2).every((l) => /^\d{4}-\d\d-\d\dT[\d:]+Z campaign: job \d\/2 /.test(l)), lines.join('\n')).toBe(true);
+  }, 60_000);
 });
