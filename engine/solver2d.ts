@@ -304,6 +304,9 @@ function fixedPointBound(grid: CrossSectionGrid, u: Float64Array, p: number, val
     norm += u[q] * u[q];
   }
   const { gap, spread } = separation(values, k, p);
+  // With no other eigenvalue known (a block of one state) nothing bounds the distance: not settled,
+  // so the caller re-solves for the state above as well (a lone state was returned unrefined).
+  if (!Number.isFinite(gap)) return r2 === 0 ? spread : Infinity;
   return r2 / norm / gap + spread;
 }
 

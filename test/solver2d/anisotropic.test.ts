@@ -30,6 +30,12 @@ describe('diagonal mass tensor and non-parabolic masses (fixture test/reference/
     expect(r.status).toBe('converged');
     fixture.cases.nonparabolic.energies_eV.forEach((e, k) => expectClose(r.energies[k]!, e, 1e-5, `non-parabolic level ${k + 1}`));
   });
+
+  it('non-parabolic well, one state asked for: the same certified ground level (a lone state was returned at its band-edge masses, 0.1 meV high)', () => {
+    const r = solveCrossSection(fixtureGrid(fixture.cases.nonparabolic), 1);
+    expect(r.status).toBe('converged');
+    expectClose(r.energies[0]!, fixture.cases.nonparabolic.energies_eV[0]!, 1e-5, 'non-parabolic level 1 alone');
+  });
 });
 
 describe('uniform anisotropic box (closed form)', () => {
