@@ -12,7 +12,9 @@ import { join } from 'node:path';
 import { fileURLToPath } from 'node:url';
 
 const ROOT = fileURLToPath(new URL('../../', import.meta.url));
-const run = (args: string[]) => spawnSync(process.execPath, ['--import', 'tsx', join(ROOT, 'engine/cli/main.ts'), ...args], { cwd: ROOT, encoding: 'utf8', timeout: 30_000 });
+// The hang these guard against never ended; the bound only has to exceed a cold start of the CLI
+// under tsx on a loaded machine (a fresh clone compiles every module on the first spawn).
+const run = (args: string[]) => spawnSync(process.execPath, ['--import', 'tsx', join(ROOT, 'engine/cli/main.ts'), ...args], { cwd: ROOT, encoding: 'utf8', timeout: 90_000 });
 
 describe('impossible output paths', () => {
   const dir = mkdtempSync(join(tmpdir(), 'ws-out-'));
@@ -25,7 +27,7 @@ describe('impossible output paths', () => {
     ['report --out below a file', ['report', 'runs/pump-976.yaml', '--out', join(file, 'r.html')], /is a file, not a folder/],
     ['solve --plot below a file', ['solve', 'runs/pump-976.yaml', '--plot', join(file, 'b.svg')], /--plot: .* is a file, not a folder/],
     ['design --out under /proc', ['design', 'runs/pump-976.yaml', '--starts', '1', '--out', '/proc/wellsmith-test'], /"\/proc\/wellsmith-test" cannot be created here/],
-  ])('%s: exit 2, one line, no hang', (_name, args, message) => {
+  ])('%s: exit 2, one line, no hang', { timeout: 120_000 }, (_name, args, message) => {
     const r = run(args);
     expect(r.error, 'finished before the timeout').toBeUndefined();
     expect(r.status, r.stderr).toBe(2);
