@@ -92,6 +92,20 @@ export function progressLog(label: string, { delayMs = 0, intervalMs = 0 }: { re
   };
 }
 
+/**
+ * Progress of a command with one counter (solve, tolerance): the bar on a terminal; otherwise, once
+ * the work has run past PROGRESS_DELAY_MS, a time-stamped line at most every LOG_INTERVAL_MS and
+ * the last, so a log file of a long run tells where it is.
+ */
+export function progressShown(label: string): Progress {
+  const bar = progressBar(label);
+  const log = progressLog(label, { delayMs: PROGRESS_DELAY_MS, intervalMs: LOG_INTERVAL_MS });
+  return {
+    update: (done, total, note) => { bar.update(done, total, note); log.finished(done, total, `${done}/${total} ${note}`); },
+    stop: bar.stop,
+  };
+}
+
 /** Predicted work longer than this (s) gets a note before it starts. */
 export const LONG_WORK_S = 60;
 

@@ -10,7 +10,7 @@ import { runSolve, type SolveArgs } from './solve.js';
 import { InputError } from '../errors.js';
 import { EXIT, failure, success, type Outcome } from './exit.js';
 import { checkOutputFile, writeFileAtomic } from './output.js';
-import { progressBar } from './progress.js';
+import { progressShown } from './progress.js';
 
 export interface ReportArgs {
   readonly input: string;
@@ -46,7 +46,7 @@ async function withTolerance(input: ReportInput, args: ReportArgs): Promise<Repo
   if (!Number.isInteger(args.samples) || args.samples < 0 || args.samples > MAX_SAMPLES) throw new InputError('bad-value', `--samples: must be a whole number from 0 to ${MAX_SAMPLES}, got ${args.samples}; e.g. --samples 500`);
   if (!Number.isInteger(args.workers) || args.workers < 1) throw new InputError('bad-value', `--workers: must be a whole number ≥ 1, got ${args.workers}`);
   const spec = loadSpecFile(args.input).spec;
-  const bar = progressBar('tolerance');
+  const bar = progressShown('tolerance');
   try {
     const onProgress = (done: number, total: number): void => bar.update(done, total, 'sample batches');
     return { ...input, tolerance: await toleranceReport(spec, nominalVariables(spec), { ...DEFAULT_TOLERANCE, samples: args.samples, workers: args.workers, onProgress }) };

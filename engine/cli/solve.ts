@@ -3,7 +3,7 @@ import { loadSpecFile } from '../input/load.js';
 import { solve, BANDS, type SolveResult } from '../solve.js';
 import { describeModels, expandStack, nominalVariables, type Structure } from '../structure.js';
 import { stateRegions, stateWells, type StateRegion } from '../../objectives/wells.js';
-import { noteLongWork, progressBar } from './progress.js';
+import { noteLongWork, progressShown } from './progress.js';
 import { describeOffsetRule, INTERFACE_HEADER, interfaceRow } from '../lineup.js';
 import { EXIT, failure, success, type Outcome } from './exit.js';
 import { fixed, inUnit, table, toJson, withUnit } from '../text.js';
@@ -99,7 +99,7 @@ const LONG_STACK_LAYERS = 1500;
 
 export function runSolve(args: SolveArgs): Outcome {
   let locate: ((f: string) => number | undefined) | undefined;
-  const bar = progressBar('solve');
+  const bar = progressShown('solve');
   try {
     const loaded = loadSpecFile(args.spec);
     locate = loaded.locate;

@@ -11,7 +11,7 @@ import type { RobustResult } from '../tolerance/robust.js';
 import { EXIT, failure, success, type Outcome } from './exit.js';
 import { fixed, inUnit, sig, signed, signedIn, table, toJson, withUnit } from '../text.js';
 import { worstText } from '../tolerance/describe.js';
-import { noteLongWork, progressBar } from './progress.js';
+import { noteLongWork, progressShown } from './progress.js';
 
 export interface ToleranceArgs {
   readonly spec: string;
@@ -91,7 +91,7 @@ function measureSeconds(spec: Spec, values: Readonly<Record<string, number>>): n
 
 export async function runTolerance(args: ToleranceArgs): Promise<Outcome> {
   let locate: ((f: string) => number | undefined) | undefined;
-  const bar = progressBar('tolerance');
+  const bar = progressShown('tolerance');
   try {
     for (const [name, v, min, max] of [['--samples', args.samples, 0, MAX_SAMPLES], ['--workers', args.workers, 1, 1024]] as const) {
       if (!Number.isInteger(v) || v < min || v > max) throw new InputError('bad-value', `${name}: must be a whole number from ${min} to ${max}, got ${v}`);

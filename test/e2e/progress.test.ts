@@ -11,7 +11,7 @@ import { cli } from '../../engine/cli/app.js';
 import { durationText, noteLongWork, progressBar } from '../../engine/cli/progress.js';
 import { MAX_LAYERS } from '../../engine/structure.js';
 import { spawnCli } from '../campaign/helpers.js';
-import { onTerminal } from './terminal.js';
+import { captureStderr, onTerminal } from './terminal.js';
 
 describe('runs that never go silent', () => {
   it('the progress bar draws on a terminal once the work passes the delay, and not for quick work', async () => {
@@ -42,6 +42,17 @@ describe('runs that never go silent', () => {
     const drawn = await onTerminal(async () => { code = (await cli(['report', 'runs/pump-976.yaml', '--tolerance', '--samples', '8000', '--workers', '1', '--out', out])).code; });
     expect(code).toBe(0);
     expect(drawn).toMatch(/tolerance \[.*\] \d+\/\d+ .* sample batches/);
+  }, 60_000);
+
+  it('tolerance with stderr not a terminal logs time-stamped lines once it runs past the delay, the last one at the end', async () => {
+    let code = -1;
+    const logged = await captureStderr(async () => { code = (await cli(['tolerance', 'runs/pump-976.yaml', '--samples', '8000', '--workers', '1'])).code; }, false);
+    expect(code).toBe(0);
+    const lines = logged.trim().split('\n');
+    expect(lines.length, logged).toBeGreaterThan(0);
+    for (const l of lines) expect(l).toMatch(/^\d{4}-\d\d-\d\dT\d\d:\d\d:\d\dZ tolerance: \d+\/\d+ sample batches$/);
+    const [done, total] = /(\d+)\/(\d+) sample batches$/.exec(lines.at(-1)!)!.slice(1).map(Number);
+    expect(done).toBe(total);
   }, 60_000);
 
   it('a prediction above a minute is noted before the work, in words', async () => {
