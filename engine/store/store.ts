@@ -626,7 +626,7 @@ function liftNumbers(v: unknown, numbers: number[]): unknown {
   for (const k of Object.keys(v)) {
     const x = (v as Record<string, unknown>)[k];
     if (x === undefined) continue;
-    // A key "__proto__" (a user's variable may be so named) must stay a key: an assignment would set the prototype.
+    // A key "__proto__" (a user's variable may be so named) must stay a key: writing o[k] would replace the prototype instead.
     if (k === '__proto__') Object.defineProperty(o, k, { value: liftNumbers(x, numbers), enumerable: true, writable: true, configurable: true });
     else o[k] = liftNumbers(x, numbers);
   }
