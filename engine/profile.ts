@@ -61,9 +61,10 @@ export interface BandProfile {
 }
 
 /** 1 kV/cm = 1e-4 V/nm: the potential-energy slope of an electron in eV per nm. */
-const KV_PER_CM_TO_EV_PER_NM = 1e-4;
+export const KV_PER_CM_TO_EV_PER_NM = 1e-4;
 
-function bandsAt(layer: ResolvedLayer, t: number): LayerBands {
+/** A layer's band edges and masses at fraction t of its thickness: linear between its samples. */
+export function bandsAtFraction(layer: ResolvedLayer, t: number): LayerBands {
   const s = layer.bands;
   if (s.length === 1) return s[0]!;
   const u = Math.min(Math.max(t, 0), 1) * (s.length - 1);
@@ -80,7 +81,7 @@ function bandsAt(layer: ResolvedLayer, t: number): LayerBands {
 }
 
 /** Particle-sense potential, masses and non-parabolicity of one band at one point. */
-function bandPoint(band: BandName, b: LayerBands, tilt: number, nonparabolic: boolean): OuterRegion {
+export function bandPoint(band: BandName, b: LayerBands, tilt: number, nonparabolic: boolean): OuterRegion {
   switch (band) {
     case 'electron': return { V: b.Ec + tilt, mass: b.me, alpha: nonparabolic ? b.alpha : 0, massInPlane: b.me };
     case 'heavy_hole': return { V: -(b.Ehh + tilt), mass: b.mhh_z, alpha: 0, massInPlane: b.mhh_par };
@@ -131,8 +132,8 @@ export function buildBandProfile(s: Structure, band: BandName, options: ProfileO
   const zc = s.total_nm / 2;
   const first = s.layers[0]!;
   const last = s.layers[s.layers.length - 1]!;
-  const left = bandPoint(band, bandsAt(first, 0), slope * (0 - zc), options.nonparabolic);
-  const right = bandPoint(band, bandsAt(last, 1), slope * (s.total_nm - zc), options.nonparabolic);
+  const left = bandPoint(band, bandsAtFraction(first, 0), slope * (0 - zc), options.nonparabolic);
+  const right = bandPoint(band, bandsAtFraction(last, 1), slope * (s.total_nm - zc), options.nonparabolic);
   const openEdge = Math.min(left.V, right.V);
   const slices: Slice[] = [];
   if (options.linear) slices.push(...linearPieceSlices(linearPieces(s, band, slope, options.nonparabolic), openEdge));
@@ -144,7 +145,7 @@ export function buildBandProfile(s: Structure, band: BandName, options: ProfileO
       const w = layer.thickness_nm / n;
       for (let k = 0; k < n; k++) {
         const t = (k + 0.5) / n;
-        const p = bandPoint(band, bandsAt(layer, t), slope * (z0 + (k + 0.5) * w - zc), options.nonparabolic);
+        const p = bandPoint(band, bandsAtFraction(layer, t), slope * (z0 + (k + 0.5) * w - zc), options.nonparabolic);
         slices.push({ width_nm: w, V: p.V, mass: p.mass, alpha: p.alpha, massInPlane: p.massInPlane, layer: layer.index });
       }
       z0 += layer.thickness_nm;
@@ -206,8 +207,8 @@ function linearPieces(s: Structure, band: BandName, fieldSlope: number, nonparab
     const w = layer.thickness_nm / count;
     for (let k = 0; k < count; k++) {
       const za = z0 + k * w;
-      const a = bandPoint(band, bandsAt(layer, k / count), fieldSlope * (za - zc), nonparabolic);
-      const b = bandPoint(band, bandsAt(layer, (k + 1) / count), fieldSlope * (za + w - zc), nonparabolic);
+      const a = bandPoint(band, bandsAtFraction(layer, k / count), fieldSlope * (za - zc), nonparabolic);
+      const b = bandPoint(band, bandsAtFraction(layer, (k + 1) / count), fieldSlope * (za + w - zc), nonparabolic);
       pieces.push({ layer: layer.index, width_nm: w, a, b });
     }
     z0 += layer.thickness_nm;

@@ -8,6 +8,7 @@
 import { InputError } from '../errors.js';
 import { settingsOf, solveStructure, type SolveOptions, type SolveResult, type SolverSettings } from '../solve.js';
 import type { Spec } from '../input/schema.js';
+import { KV_PER_CM_TO_EV_PER_NM } from '../profile.js';
 import { parseEnergy, parseLength } from '../input/units.js';
 import { buildStructure, nominalVariables, type Structure } from '../structure.js';
 import { continuumFor, DEFAULT_ABSORPTION, intersubbandAbsorption, type AbsorptionOptions, type AbsorptionResult } from './absorption.js';
@@ -148,7 +149,7 @@ function labelled(sc: SelfConsistentState): DopedSubband[] {
 function summary(sc: SelfConsistentState, doping: DopingProfile): SelfConsistency {
   const o = sc.options;
   const z = Array.from(sc.mesh.z);
-  const slope = sc.folded.field_kV_per_cm * 1e-4;
+  const slope = sc.folded.field_kV_per_cm * KV_PER_CM_TO_EV_PER_NM;
   const zc = sc.folded.total_nm / 2;
   // The majority band's edge at each node: the layer to the node's right (the last node: its left).
   const band: number[] = [];

@@ -24,7 +24,7 @@
  * Units: eV, nm, K; densities nm⁻² inside, cm⁻² in results.
  */
 import { KB_EV_PER_K } from '../constants.js';
-import type { BandName } from '../profile.js';
+import { bandsAtFraction, KV_PER_CM_TO_EV_PER_NM, type BandName } from '../profile.js';
 import type { LayerBands, Structure } from '../structure.js';
 import { wellsOf } from '../../objectives/wells.js';
 import type { DopingProfile } from './doping.js';
@@ -33,10 +33,8 @@ import { andersonMixer } from './mixing.js';
 import { EMPTY_KT, gasBound, gasDensity, gasSite, neutralLevel, subbandFilling } from './occupation.js';
 import { predictPotential, type GasPoint } from './predictor.js';
 import { dopingLoads, poissonMesh, solvePoisson, type PoissonMesh } from './poisson.js';
-import { bandsAtFraction, foldPotential, meshStates, potentialProfile, sampleGrid, type MeshState } from './subbands.js';
+import { foldPotential, meshStates, potentialProfile, sampleGrid, type MeshState } from './subbands.js';
 
-/** 1 kV/cm = 1e-4 eV/nm for an electron (as engine/profile.ts). */
-const KV_PER_CM_TO_EV_PER_NM = 1e-4;
 
 /** Gas sites that together hold less than this share of a cell's carriers are left out of its neutrality (and its charge). */
 const NEGLIGIBLE = 1e-10;

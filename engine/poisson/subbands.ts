@@ -12,29 +12,12 @@
  * Units: eV, nm, m0.
  */
 import { HBAR2_OVER_2M0 } from '../constants.js';
-import type { BandName, BandProfile, OuterRegion, Slice } from '../profile.js';
+import { bandPoint, bandsAtFraction, KV_PER_CM_TO_EV_PER_NM, type BandName, type BandProfile, type OuterRegion, type Slice } from '../profile.js';
 import { twoBandFactor } from '../solver1d/slices.js';
 import { countStatesBelow, solveBand } from '../solver1d/states.js';
 import { wavefunction } from '../solver1d/wavefunction.js';
 import type { LayerBands, ResolvedLayer, Structure } from '../structure.js';
 import type { PoissonMesh } from './poisson.js';
-
-/** A layer's band edges and masses at fraction t of its thickness: linear between its samples (as the profile builder reads them). */
-export function bandsAtFraction(layer: ResolvedLayer, t: number): LayerBands {
-  const s = layer.bands;
-  if (s.length === 1) return s[0]!;
-  const u = Math.min(Math.max(t, 0), 1) * (s.length - 1);
-  const k = Math.min(Math.floor(u), s.length - 2);
-  const f = u - k;
-  const a = s[k]!;
-  const b = s[k + 1]!;
-  const mix = (p: number, q: number): number => p + f * (q - p);
-  return {
-    Ec: mix(a.Ec, b.Ec), Ehh: mix(a.Ehh, b.Ehh), Elh: mix(a.Elh, b.Elh), me: mix(a.me, b.me),
-    mhh_z: mix(a.mhh_z, b.mhh_z), mlh_z: mix(a.mlh_z, b.mlh_z), mhh_par: mix(a.mhh_par, b.mhh_par),
-    mlh_par: mix(a.mlh_par, b.mlh_par), alpha: mix(a.alpha, b.alpha),
-  };
-}
 
 /**
  * The structure with the electron potential energy U (eV, at the mesh nodes) added to every band
@@ -81,18 +64,6 @@ export function sampleGrid(mesh: PoissonMesh): Float64Array {
   return g;
 }
 
-/** 1 kV/cm = 1e-4 eV/nm for an electron (as engine/profile.ts). */
-const KV_PER_CM_TO_EV_PER_NM = 1e-4;
-
-/** Particle-sense potential and masses of a band at one point (as engine/profile.ts reads a layer's samples). */
-function pointOf(band: BandName, b: LayerBands, shift: number, nonparabolic: boolean): OuterRegion {
-  switch (band) {
-    case 'electron': return { V: b.Ec + shift, mass: b.me, alpha: nonparabolic ? b.alpha : 0, massInPlane: b.me };
-    case 'heavy_hole': return { V: -(b.Ehh + shift), mass: b.mhh_z, alpha: 0, massInPlane: b.mhh_par };
-    case 'light_hole': return { V: -(b.Elh + shift), mass: b.mlh_z, alpha: 0, massInPlane: b.mlh_par };
-  }
-}
-
 /**
  * The profile of one carrier band in the potential U (eV at the mesh nodes): each mesh element cut
  * into `parts` equal flat slices at the midpoint values of the element's linear interpolation (band
@@ -128,8 +99,8 @@ export function potentialProfile(structure: Structure, mesh: PoissonMesh, U: Arr
     }
   });
   const last = structure.layers.length - 1;
-  const left = pointOf(band, bandsAtFraction(structure.layers[0]!, 0), U[0]! + slope * (0 - zc), nonparabolic);
-  const right = pointOf(band, bandsAtFraction(structure.layers[last]!, 1), U[mesh.z.length - 1]! + slope * (structure.total_nm - zc), nonparabolic);
+  const left = bandPoint(band, bandsAtFraction(structure.layers[0]!, 0), U[0]! + slope * (0 - zc), nonparabolic);
+  const right = bandPoint(band, bandsAtFraction(structure.layers[last]!, 1), U[mesh.z.length - 1]! + slope * (structure.total_nm - zc), nonparabolic);
   return { band, slices, left, right, sign: band === 'electron' ? 1 : -1, openEdge: Math.min(left.V, right.V) };
 }
 
