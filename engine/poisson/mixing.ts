@@ -14,8 +14,8 @@ export interface Mixer {
   next(x: Float64Array, f: Float64Array): Float64Array;
 }
 
-/** Solves the m × m system A y = r in place by Gaussian elimination with partial pivoting. */
-function solveSmall(A: number[][], r: number[]): number[] {
+/** Solves a small dense system A x = r in place (A and r are overwritten) by Gaussian elimination with partial pivoting. */
+export function solveDense(A: Float64Array[], r: Float64Array): Float64Array {
   const m = r.length;
   for (let c = 0; c < m; c++) {
     let p = c;
@@ -24,17 +24,17 @@ function solveSmall(A: number[][], r: number[]): number[] {
     [r[c], r[p]] = [r[p]!, r[c]!];
     for (let i = c + 1; i < m; i++) {
       const q = A[i]![c]! / A[c]![c]!;
-      for (let j = c; j < m; j++) A[i]![j]! -= q * A[c]![j]!;
-      r[i]! -= q * r[c]!;
+      for (let j = c; j < m; j++) A[i]![j] = A[i]![j]! - q * A[c]![j]!;
+      r[i] = r[i]! - q * r[c]!;
     }
   }
-  const y = new Array<number>(m).fill(0);
+  const x = new Float64Array(m);
   for (let i = m - 1; i >= 0; i--) {
     let s = r[i]!;
-    for (let j = i + 1; j < m; j++) s -= A[i]![j]! * y[j]!;
-    y[i] = s / A[i]![i]!;
+    for (let j = i + 1; j < m; j++) s -= A[i]![j]! * x[j]!;
+    x[i] = s / A[i]![i]!;
   }
-  return y;
+  return x;
 }
 
 /** An Anderson mixer with parameter beta (0 < β ≤ 1) keeping `depth` previous steps. */
@@ -61,12 +61,12 @@ export function andersonMixer(beta: number, depth: number): Mixer {
       const m = df.length;
       if (m === 0) return out;
       const dot = (p: Float64Array, q: Float64Array): number => { let s = 0; for (let i = 0; i < n; i++) s += p[i]! * q[i]!; return s; };
-      const A = df.map((p) => df.map((q) => dot(p, q)));
+      const A = df.map((p) => Float64Array.from(df, (q) => dot(p, q)));
       let trace = 0;
       for (let j = 0; j < m; j++) trace += A[j]![j]!;
       if (!(trace > 0)) return out;
       for (let j = 0; j < m; j++) A[j]![j]! += 1e-12 * trace;
-      const gamma = solveSmall(A, df.map((p) => dot(p, f)));
+      const gamma = solveDense(A, Float64Array.from(df, (p) => dot(p, f)));
       for (let j = 0; j < m; j++) {
         const g = gamma[j]!;
         if (!Number.isFinite(g)) continue;

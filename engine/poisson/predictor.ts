@@ -17,6 +17,7 @@
  * Units: eV, nm, densities nm⁻² (loads).
  */
 import { gasDensity, gasSlope, subbandFilling, subbandSlope, type GasSite } from './occupation.js';
+import { solveDense } from './mixing.js';
 import { E_OVER_EPS0_V_NM, type PoissonMesh } from './poisson.js';
 import type { MeshState } from './subbands.js';
 
@@ -62,29 +63,6 @@ function thomas(sub: Float64Array, diag: Float64Array, sup: Float64Array, rhs: F
   }
   for (let i = n - 2; i >= 0; i--) d[i] = d[i]! - c[i]! * d[i + 1]!;
   return d;
-}
-
-/** Solves the small dense system A x = r (C × C) by Gaussian elimination with partial pivoting. */
-function dense(A: Float64Array[], r: Float64Array): Float64Array {
-  const m = r.length;
-  for (let c = 0; c < m; c++) {
-    let p = c;
-    for (let i = c + 1; i < m; i++) if (Math.abs(A[i]![c]!) > Math.abs(A[p]![c]!)) p = i;
-    [A[c], A[p]] = [A[p]!, A[c]!];
-    [r[c], r[p]] = [r[p]!, r[c]!];
-    for (let i = c + 1; i < m; i++) {
-      const q = A[i]![c]! / A[c]![c]!;
-      for (let j = c; j < m; j++) A[i]![j] = A[i]![j]! - q * A[c]![j]!;
-      r[i] = r[i]! - q * r[c]!;
-    }
-  }
-  const x = new Float64Array(m);
-  for (let i = m - 1; i >= 0; i--) {
-    let s = r[i]!;
-    for (let j = i + 1; j < m; j++) s -= A[i]![j]! * x[j]!;
-    x[i] = s / A[i]![i]!;
-  }
-  return x;
 }
 
 /**
@@ -171,7 +149,7 @@ export function predictPotential(input: PredictorInput): { readonly potential: F
         S[a]![b] = (a === b ? dF : 0) - cY;
       });
     });
-    const dFermi = cells.length > 0 ? dense(S, rhs) : new Float64Array(0);
+    const dFermi = cells.length > 0 ? solveDense(S, rhs) : new Float64Array(0);
     const dU = new Float64Array(N);
     for (let k = 0; k < N; k++) {
       let v = y[k]!;
