@@ -37,23 +37,3 @@ export function fractionOf(raw: string | number, field: string): number {
   return v;
 }
 
-/**
- * A photon window half-width in the unit of the goal (nm or µm of wavelength, meV or eV, cm⁻¹):
- * the same reading as transition targets give their `within`.
- */
-export function windowIn(raw: string | number, unit: 'nm' | 'µm' | 'meV' | 'eV' | 'cm⁻¹', field: string): number {
-  let w: number | string;
-  if (unit === 'nm' || unit === 'µm') {
-    const l = parseLength(raw);
-    w = typeof l === 'string' ? l : 'ml' in l ? 'a wavelength window takes nm or µm' : unit === 'µm' ? l.nm / 1000 : l.nm;
-  } else if (unit === 'cm⁻¹') {
-    const q = splitQuantity(raw);
-    w = q && /^(|cm-1|cm\^-1|cm⁻¹|\/cm)$/.test(q.unit) ? q.value : `expected a wavenumber window such as "20 cm-1", got ${JSON.stringify(raw)}`;
-  } else {
-    const e = parseEnergy(raw);
-    w = typeof e === 'string' ? e : unit === 'meV' ? e * 1000 : e;
-  }
-  if (typeof w === 'string') throw new InputError('bad-value', `${field}: ${w}`, field);
-  if (!(w > 0)) throw new InputError('bad-value', `${field}: must be positive, got ${JSON.stringify(raw)}`, field);
-  return w;
-}

@@ -10,7 +10,7 @@ import type { OpticsContext } from '../engine/optics/optics.js';
 import { parseGain } from '../engine/optics/schema.js';
 import type { BinSums } from '../engine/optics/spectra.js';
 import { MISSING_STATE_PENALTY, type Objective } from './types.js';
-import { quantity, transitionEnergy, weight } from './common.js';
+import { quantity, transitionEnergy, unitNotes, weight } from './common.js';
 import { candidateOptics, checkSpectrumTarget, photonWindow, polarisation, spectrumKeys } from './gain-common.js';
 
 const schema = z.object({
@@ -71,6 +71,7 @@ export const absorptionEdgeObjective: Objective<AbsorptionEdgeTarget> = {
     photonWindow(t, field);
     if (t.level !== undefined && !(parseGain(t.level, `${field}.level`) > 0)) throw new InputError('bad-value', `${field}.level: must be a positive absorption, got ${JSON.stringify(t.level)}`, `${field}.level`);
   },
+  warnings: (t, field) => unitNotes([[t.within, `${field}.within`, photonWindow(t, field).scale.unit]]),
   evaluate: (t, r) => {
     const w = photonWindow(t, 'target');
     const which = t.absorption_edge === 'TE' ? 'te' : 'tm';

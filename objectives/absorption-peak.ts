@@ -2,8 +2,8 @@
 import { z } from 'zod';
 import { InputError } from '../engine/errors.js';
 import { MISSING_STATE_PENALTY, type Objective } from './types.js';
-import { photonScale, quantity, weight } from './common.js';
-import { absorptionOf, windowIn } from './absorption-common.js';
+import { photonScale, quantity, unitNotes, weight, windowIn } from './common.js';
+import { absorptionOf } from './absorption-common.js';
 
 const schema = z.object({
   absorption_peak: quantity.describe('Goal of the absorption peak: a wavelength ("9 µm"), an energy ("140 meV") or a wavenumber ("1100 cm-1")'),
@@ -24,6 +24,7 @@ export const absorptionPeakObjective: Objective<AbsorptionPeakTarget> = {
     const scale = photonScale(t.absorption_peak, `${field}.absorption_peak`);
     windowIn(t.within, scale.unit, `${field}.within`);
   },
+  warnings: (t, field) => unitNotes([[t.within, `${field}.within`, photonScale(t.absorption_peak, `${field}.absorption_peak`).unit]]),
   evaluate: (t, r) => {
     const scale = photonScale(t.absorption_peak, 'absorption_peak');
     const within = windowIn(t.within, scale.unit, 'within');

@@ -2,7 +2,7 @@
 import { z } from 'zod';
 import { InputError } from '../engine/errors.js';
 import { bandOfLabel, findState } from '../engine/solve.js';
-import { isUnitless, parseEnergy, parsePhotonEnergy, splitQuantity, unitlessNote } from '../engine/input/units.js';
+import { isUnitless, parseEnergy, parseLength, parsePhotonEnergy, splitQuantity, unitlessNote } from '../engine/input/units.js';
 import { HC_EV_NM, KB_EV_PER_K } from '../engine/constants.js';
 import type { TargetSource } from './types.js';
 
@@ -88,6 +88,29 @@ export function photonScale(rawGoal: string | number, field: string, key?: Photo
   }
   if (p.kind === 'wavenumber') return { goal_eV: p.eV, unit: 'cm⁻¹', fromEv: (e) => (e * 1e7) / HC_EV_NM };
   return /meV/.test(text) ? { goal_eV: p.eV, unit: 'meV', fromEv: (e) => e * 1000 } : { goal_eV: p.eV, unit: 'eV', fromEv: (e) => e };
+}
+
+/**
+ * A photon window half-width in the unit of its goal (nm or µm of wavelength, meV or eV, cm⁻¹),
+ * as every photon target reads its `within`; a number without a unit is in the goal's unit (said
+ * by unitNotes). `field` names the window in messages.
+ */
+export function windowIn(raw: string | number, unit: PhotonScale['unit'], field: string): number {
+  let w: number | string;
+  if (isUnitless(raw)) w = splitQuantity(raw)!.value;
+  else if (unit === 'nm' || unit === 'µm') {
+    const l = parseLength(raw);
+    w = typeof l === 'string' ? l : 'ml' in l ? 'a wavelength window takes nm or µm' : unit === 'µm' ? l.nm / 1000 : l.nm;
+  } else if (unit === 'cm⁻¹') {
+    const q = splitQuantity(raw);
+    w = q && /^(cm-1|cm\^-1|cm⁻¹|\/cm)$/.test(q.unit) ? q.value : `expected a wavenumber window such as "20 cm-1", got ${JSON.stringify(raw)}`;
+  } else {
+    const e = parseEnergy(raw);
+    w = typeof e === 'string' ? e : unit === 'meV' ? e * 1000 : e;
+  }
+  if (typeof w === 'string') throw new InputError('bad-value', `${field}: ${w}`, field);
+  if (!(w > 0)) throw new InputError('bad-value', `${field}: must be positive, got ${JSON.stringify(raw)}`, field);
+  return w;
 }
 
 /** An energy that may be written as a multiple of kT ("3 kT") at the structure's temperature; eV. */

@@ -21,8 +21,7 @@ import { opticsContext, type OpticsContext } from '../engine/optics/optics.js';
 import { DEFAULT_LINESHAPE, DEFAULT_TAU_PS, parseTime, sheetDensityOf, type OpticsSettings, type Population } from '../engine/optics/schema.js';
 import type { SolveResult } from '../engine/solve.js';
 import type { Geometry, TargetSource } from './types.js';
-import { photonScale, quantity, type PhotonScale } from './common.js';
-import { parseEnergy, parseLength } from '../engine/input/units.js';
+import { photonScale, quantity, windowIn, type PhotonScale } from './common.js';
 
 /** Valence settings of the optical targets (see the module comment). */
 export const SEARCH_BANDS: OpticalBandOptions = { axial: true, kPoints: 17, kMax_per_nm: 1, extrapolate: false };
@@ -112,15 +111,6 @@ export function photonWindow(t: { readonly energy?: string | number | undefined;
   if (keys.length !== 1) throw new InputError('bad-value', `${field}: give exactly one of energy or wavelength, got ${keys.length === 0 ? 'none' : keys.join(' and ')}`, field);
   const key = keys[0]!;
   const scale = photonScale(t[key]!, `${field}.${key}`);
-  let within: number | string;
-  if (scale.unit === 'nm' || scale.unit === 'µm') {
-    const l = parseLength(t.within);
-    within = typeof l === 'string' ? l : 'ml' in l ? 'a wavelength window takes nm or µm' : scale.unit === 'µm' ? l.nm / 1000 : l.nm;
-  } else {
-    const e = parseEnergy(t.within);
-    within = typeof e === 'string' ? e : scale.unit === 'meV' ? e * 1000 : e;
-  }
-  if (typeof within === 'string') throw new InputError('bad-value', `${field}.within: ${within}`, `${field}.within`);
-  if (!(within > 0)) throw new InputError('bad-value', `${field}.within: must be positive, got ${JSON.stringify(t.within)}`, `${field}.within`);
+  const within = windowIn(t.within, scale.unit, `${field}.within`);
   return { key, scale, within };
 }

@@ -6,7 +6,7 @@
 import { z } from 'zod';
 import { gainPeak } from '../engine/optics/figures.js';
 import { MISSING_STATE_PENALTY, type Objective } from './types.js';
-import { quantity, transitionEnergy, weight } from './common.js';
+import { quantity, transitionEnergy, unitNotes, weight } from './common.js';
 import { candidateOptics, checkSpectrumTarget, densityKeys, photonWindow, polarisation, populationOf, spectrumKeys } from './gain-common.js';
 
 const schema = z.object({
@@ -34,6 +34,7 @@ export const gainPeakObjective: Objective<GainPeakTarget> = {
     checkSpectrumTarget(t, field, geometry, 'gain_peak');
     photonWindow(t, field);
   },
+  warnings: (t, field) => unitNotes([[t.within, `${field}.within`, photonWindow(t, field).scale.unit]]),
   evaluate: (t, r) => {
     const w = photonWindow(t, 'target');
     const pol = t.gain_peak === 'TE' ? 'te' : 'tm';

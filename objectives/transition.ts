@@ -4,8 +4,7 @@ import { InputError } from '../engine/errors.js';
 import { MISSING_STATE_PENALTY, type Objective, type TargetSource } from './types.js';
 import { bandOfLabel } from '../engine/solve.js';
 import { findWell, localise, wellLine } from './wells.js';
-import { excitonBinding, PHOTON_UNITS, photonScale, quantity, transitionEnergy, transitionStates, unitNotes, weight } from './common.js';
-import { isUnitless, parseLength, parseEnergy, splitQuantity } from '../engine/input/units.js';
+import { excitonBinding, PHOTON_UNITS, photonScale, quantity, transitionEnergy, transitionStates, unitNotes, weight, windowIn } from './common.js';
 
 const schema = z.object({
   transition: z.string().describe('e1-hh1, e1-lh1, e1-e2 …'),
@@ -23,26 +22,6 @@ function goalOf(t: TransitionTarget, field: string): { key: 'energy' | 'waveleng
   const keys = (['energy', 'wavelength', 'wavenumber'] as const).filter((k) => t[k] !== undefined);
   if (keys.length !== 1) throw new InputError('bad-value', `${field}: give exactly one of energy, wavelength or wavenumber for transition ${t.transition}, got ${keys.length === 0 ? 'none' : keys.join(' and ')}`, field);
   return { key: keys[0]!, raw: t[keys[0]!]! };
-}
-
-/** The window half-width in the goal's unit; a number without a unit is in the goal's unit. */
-function windowOf(t: TransitionTarget, unit: string, field: string): number {
-  const raw = t.within;
-  let w: number | string;
-  if (isUnitless(raw)) w = splitQuantity(raw)!.value;
-  else if (unit === 'nm' || unit === 'µm') {
-    const l = parseLength(raw);
-    w = typeof l === 'string' ? l : 'ml' in l ? 'a wavelength window takes nm or µm' : unit === 'µm' ? l.nm / 1000 : l.nm;
-  } else if (unit === 'cm⁻¹') {
-    const q = splitQuantity(raw);
-    w = q && /^(|cm-1|cm\^-1|cm⁻¹|\/cm)$/.test(q.unit) ? q.value : `expected a wavenumber window such as "20 cm-1", got ${JSON.stringify(raw)}`;
-  } else {
-    const e = parseEnergy(raw);
-    w = typeof e === 'string' ? e : unit === 'meV' ? e * 1000 : e;
-  }
-  if (typeof w === 'string') throw new InputError('bad-value', `${field}.within: ${w}`, `${field}.within`);
-  if (!(w > 0)) throw new InputError('bad-value', `${field}.within: must be positive, got ${JSON.stringify(raw)}`, `${field}.within`);
-  return w;
 }
 
 /**
@@ -80,7 +59,7 @@ export const transitionObjective: Objective<TransitionTarget> = {
       throw new InputError('bad-value', `${field}.exciton: the exciton estimate covers interband lines of layer stacks, got ${t.transition} on a ${geometry === 'wire' ? 'wire' : 'single band'}; remove "exciton" or target an e-hh or e-lh line of a well`, `${field}.exciton`);
     }
     const g = goalOf(t, field);
-    windowOf(t, photonScale(g.raw, `${field}.${g.key}`, g.key).unit, field);
+    windowIn(t.within, photonScale(g.raw, `${field}.${g.key}`, g.key).unit, `${field}.within`);
   },
   warnings: (t, field) => {
     const g = goalOf(t, field);
@@ -90,7 +69,7 @@ export const transitionObjective: Objective<TransitionTarget> = {
   evaluate: (t, r) => {
     const g = goalOf(t, 'target');
     const scale = photonScale(g.raw, g.key, g.key);
-    const within = windowOf(t, scale.unit, 'target');
+    const within = windowIn(t.within, scale.unit, 'target.within');
     const bare = t.well === undefined ? transitionEnergy(r, t.transition) : ownLine(r, t.well, t.transition);
     // A binding that could not be estimated (a custom material without a permittivity) counts as missing.
     const binding = t.exciton ? excitonBinding(r, t.transition) : 0;
