@@ -1,23 +1,27 @@
 /**
- * The worker pool (piscina). It owns the queue and shutdown; results come back in task order
- * whatever the completion order, so nothing downstream depends on scheduling.
+ * The worker pool: W lanes for a call's tasks, results in task order whatever the completion
+ * order, so nothing downstream depends on scheduling. Every lane takes the next task index from one
+ * shared counter (engine/task.ts Batch): a thread never waits for this thread to hand it work,
+ * though this thread may compute for seconds (one start of a gain or wire design) without turning
+ * its event loop.
  *
  * Cold (threads not yet started, or started in this call): this thread is one of the W lanes,
  * beside W − 1 threads, so a search never waits for threads to load the engine (0.1–0.3 s) and
  * warm up their JIT (their first hundreds of evaluations run 2–3× slower); W = 1 needs no thread.
  * Threads start only when they pay (threadsPay): enough work left, and a processor that other
  * processes leave free beside this thread; so in a fresh process --workers 2 is not slower than
- * --workers 1 on a busy machine.
+ * --workers 1 on a busy machine. The question is asked between tasks and between the steps of a
+ * task this thread runs, so a long first task does not delay it.
  * Warm (all W threads kept from earlier calls, each having answered): the W threads carry the work
- * and this thread only hands out tasks, since on W cores a (W + 1)-th lane only slows the others
- * (measured, 2 cores, a 64-start search: W threads 0.75–0.83 s, this thread beside one thread
- * 0.88–0.94 s). The W-th thread starts in the first call after the others have answered. At the
- * end this thread also runs tasks still queued in a thread; the first result to arrive is kept.
+ * and this thread only waits, since on W cores a (W + 1)-th lane only slows the others (measured,
+ * 2 cores, a 64-start search: W threads 0.75–0.83 s, this thread beside one thread 0.88–0.94 s).
+ * The W-th thread starts in the first call after the others have answered.
  * Every task is deterministic, so which lane runs it never changes a result.
  */
 import { availableParallelism, cpus } from 'node:os';
+import { Worker } from 'node:worker_threads';
 import { InputError } from './errors.js';
-import work, { type WorkerResponse, type WorkerResult, type WorkerTask } from './worker.js';
+import { takeNext, work, type Batch, type ThreadMessage, type WorkerResponse, type WorkerResult, type WorkerTask } from './task.js';
 
 export const defaultWorkers = (): number => Math.max(1, availableParallelism());
 
@@ -31,7 +35,8 @@ function unwrap(r: WorkerResponse): WorkerResult {
 
 /**
  * When a cold pool first decides whether threads pay: by then this thread's pace is known from its
- * first tasks (a design start takes 20–80 ms) and the processors' idle time has been sampled.
+ * first tasks (a design start takes 20–80 ms) or from the time its first task has taken so far,
+ * and the processors' idle time has been sampled.
  */
 const DECISION_MS = 150;
 /** Later decisions, while much work remains but no processor was idle: the machine's load changes. */
@@ -80,69 +85,106 @@ const MIN_REMAINING_FOR_THREADS_MS = 3000;
 /** Time this process has spent in earlier calls (ms): a host that keeps searching (a campaign, a robust ranking) counts it towards the work threads would repay. */
 let earlierWorkMs = 0;
 
-type Pool = import('piscina').Piscina<WorkerTask, WorkerResponse>;
+/** One pool thread and what this thread knows of it. */
+interface Lane {
+  readonly worker: Worker;
+  /** Settles when the thread has loaded the engine (its 'ready'), or has failed to. */
+  readonly loaded: Promise<void>;
+  /** Whether it has answered a task: loaded and warmed up. */
+  answered: boolean;
+  /** Batches sent and not yet run out for it. */
+  pending: number;
+  /** Settles when `pending` is 0. */
+  idle: Promise<void>;
+  endIdle: () => void;
+}
 
 /**
  * The process's worker threads, kept between calls so that a campaign, a robust ranking or a
  * library user running many searches pays thread start-up and JIT warm-up once. Threads are
  * unreferenced between calls, so they never keep the process alive.
  */
-let shared: {
-  /** W: the pool grows to W threads (W − 1 while cold). */
-  readonly threads: number;
-  readonly pool: Pool;
-  loaded: Promise<unknown> | undefined;
-  /** Threads that have answered a task (their ids): loaded and working. */
-  readonly answered: Set<number>;
-  /** Tasks sent and not yet answered, including ones a call no longer waits for (this thread ran them first). */
-  readonly inflight: Set<Promise<unknown>>;
-} | undefined;
+let shared: { readonly threads: number; readonly lanes: Lane[] } | undefined;
 
-/**
- * Destroying a thread while it is still loading the engine can abort the process inside V8's
- * module instantiation, and destroying one that is still computing a task makes piscina throw
- * (uncaught) when its answer arrives, so a pool is destroyed only after its first task has come
- * back (the thread has loaded) and its tasks in flight have ended, or after LOAD_WAIT_MS at most.
- */
-const LOAD_WAIT_MS = 5000;
-async function destroyLoaded(entry: { readonly pool: Pool; loaded: Promise<unknown> | undefined; readonly inflight: Set<Promise<unknown>> }): Promise<void> {
-  const settled = Promise.allSettled([...(entry.loaded ? [entry.loaded] : []), ...entry.inflight]);
-  await Promise.race([settled, new Promise((resolve) => setTimeout(resolve, LOAD_WAIT_MS).unref())]);
-  await entry.pool.destroy();
+/** The calls under way, by batch id: where their threads' results and failures go. */
+const calls = new Map<number, { readonly result: (index: number, response: WorkerResponse) => void; readonly fail: (error: Error) => void }>();
+let batchIds = 0;
+
+function startLane(): Lane {
+  const worker = isTs
+    // From the sources (tests, tsx): the thread registers tsx's loader before importing its entry,
+    // which Node would otherwise refuse for its .ts extension.
+    ? new Worker(`import(${JSON.stringify(import.meta.resolve('tsx/esm/api'))}).then((tsx) => { tsx.register(); return import(${JSON.stringify(new URL('./worker.ts', import.meta.url).href)}); })`, { eval: true })
+    : new Worker(new URL('./worker.js', import.meta.url));
+  let ready: () => void = () => undefined;
+  const lane: Lane = {
+    worker,
+    loaded: new Promise<void>((resolve) => { ready = resolve; }),
+    answered: false,
+    pending: 0,
+    idle: Promise.resolve(),
+    endIdle: () => undefined,
+  };
+  worker.on('message', (m: ThreadMessage) => {
+    if (m.type === 'ready') ready();
+    else if (m.type === 'idle') {
+      if (--lane.pending === 0) lane.endIdle();
+    } else {
+      lane.answered = true;
+      calls.get(m.id)?.result(m.index, m.response);
+    }
+  });
+  // A thread that fails outside a task (it could not load, ran out of memory) fails the calls under
+  // way, and the pool is started afresh by the next call.
+  const lost = (error: Error): void => {
+    ready();
+    lane.endIdle();
+    if (shared?.lanes.includes(lane)) {
+      const others = shared.lanes.filter((l) => l !== lane);
+      shared = undefined;
+      void stopLanes(others);
+    }
+    for (const c of calls.values()) c.fail(error);
+  };
+  worker.on('error', lost);
+  worker.on('exit', (code) => lost(new Error(`a worker thread stopped (exit code ${code})`)));
+  return lane;
 }
 
-function threadPool(Piscina: typeof import('piscina').Piscina, threads: number): Pool {
-  if (shared?.threads === threads) return shared.pool;
-  if (shared) void destroyLoaded(shared);
-  const pool: Pool = new Piscina<WorkerTask, WorkerResponse>({
-    filename: new URL(isTs ? './worker.ts' : './worker.js', import.meta.url).href,
-    execArgv: isTs ? ['--import', import.meta.resolve('tsx')] : [],
-    // W − 1 threads to begin with; piscina adds the W-th when a call sends tasks for W threads,
-    // and never retires a thread (each keeps its warm JIT).
-    minThreads: threads - 1,
-    maxThreads: threads,
-    idleTimeout: Infinity,
-    // Tasks are synchronous, so a second task sent ahead waits inside the thread and starts the
-    // moment the first ends, instead of waiting for this thread to pause and hand it over.
-    concurrentTasksPerWorker: 2,
-  });
-  shared = { threads, pool, loaded: undefined, answered: new Set(), inflight: new Set() };
-  return pool;
+/** Hands a batch to a thread. */
+function send(lane: Lane, batch: Batch): void {
+  if (lane.pending++ === 0) lane.idle = new Promise<void>((resolve) => { lane.endIdle = resolve; });
+  lane.worker.postMessage(batch);
 }
 
 /** Referenced while a call runs (the process waits for its tasks), unreferenced after. */
-function hold(pool: Pool, busy: boolean): void {
-  for (const t of pool.threads) {
-    if (busy) t.ref();
-    else t.unref();
+function hold(lanes: readonly Lane[], busy: boolean): void {
+  for (const l of lanes) {
+    if (busy) l.worker.ref();
+    else l.worker.unref();
   }
+}
+
+/**
+ * Terminating a thread while it is still loading the engine can abort the process inside V8's
+ * module instantiation, so a lane is stopped only after it has loaded and ended its batch, or after
+ * LOAD_WAIT_MS at most.
+ */
+const LOAD_WAIT_MS = 5000;
+async function stopLanes(lanes: readonly Lane[]): Promise<void> {
+  await Promise.all(lanes.map(async (l) => {
+    l.worker.removeAllListeners('exit');
+    l.worker.on('exit', () => undefined);
+    await Promise.race([Promise.all([l.loaded, l.idle]), new Promise((resolve) => setTimeout(resolve, LOAD_WAIT_MS).unref())]);
+    await l.worker.terminate();
+  }));
 }
 
 /** Stops the shared threads (tests and long-lived hosts that want them gone). */
 export async function closePool(): Promise<void> {
   const old = shared;
   shared = undefined;
-  if (old) await destroyLoaded(old);
+  if (old) await stopLanes(old.lanes);
 }
 
 export interface PoolOptions {
@@ -162,124 +204,117 @@ export interface PoolOptions {
 }
 
 export async function runTasks(tasks: readonly WorkerTask[], options: PoolOptions): Promise<WorkerResult[]> {
-  const out: WorkerResult[] = new Array(tasks.length);
-  const state = new Uint8Array(tasks.length); // 0 waiting, 1 sent to a thread, 2 done
+  const n = tasks.length;
+  const out: WorkerResult[] = new Array(n);
+  const finished = new Uint8Array(n);
+  const next = new Int32Array(new SharedArrayBuffer(4));
   let done = 0;
-  let next = 0;
-  const take = (): number => (next < tasks.length ? next++ : -1);
   let settle: (error?: unknown) => void = () => undefined;
-  const finished = new Promise<void>((resolve, reject) => { settle = (error) => (error === undefined ? resolve() : reject(error)); });
+  const all = new Promise<void>((resolve, reject) => { settle = (error) => (error === undefined ? resolve() : reject(error)); });
   let wake: () => void = () => undefined;
   const finish = (i: number, r: WorkerResult): void => {
-    if (state[i] === 2) return;
-    state[i] = 2;
+    if (finished[i]) return;
+    finished[i] = 1;
     out[i] = r;
     done++;
-    options.onProgress?.(done, tasks.length, r);
+    options.onProgress?.(done, n, r);
     wake();
-    if (done === tasks.length) settle();
+    if (done === n) settle();
   };
-  const threads = Math.min(options.workers, tasks.length);
-  const kept = shared?.threads === threads ? shared : undefined;
-  // Warm: every one of the W threads has answered before. Growing: the W − 1 threads have; this
-  // call starts the W-th, which is cold, so this thread still works.
-  const warm = kept !== undefined && kept.answered.size >= threads;
-  const lanes = 2 * (kept !== undefined && kept.answered.size >= threads - 1 ? threads : threads - 1);
-  let steals = 0;
-  const here = async (): Promise<void> => {
-    for (;;) {
-      // While the threads work through new tasks this thread waits: on W cores a (W + 1)-th lane
-      // only slows the others. At the end it runs tasks still queued in a thread: all of them while
-      // no thread has loaded, else one per thread (each has one queued behind the one it runs),
-      // newest first, the least likely to have started.
-      let i = warm ? -1 : take();
-      if (i < 0 && next < tasks.length) {
-        await new Promise<void>((resolve) => { wake = resolve; });
-        continue;
-      }
-      if (i < 0 && (!warm || steals < threads)) {
-        i = state.lastIndexOf(1);
-        steals++;
-      }
-      if (i < 0) return;
+  const threads = Math.min(options.workers, n);
+  const started = performance.now();
+  if (threads <= 1) {
+    for (let i = 0; i < n; i++) {
       const step = options.onStep;
       finish(i, unwrap(work(tasks[i]!, step && (() => step(i)))));
-      // Let pool results, timers (progress display) and signals in between tasks.
+      await new Promise((resolve) => setImmediate(resolve));
+    }
+    earlierWorkMs += performance.now() - started;
+    return out;
+  }
+  const kept = shared?.threads === threads ? shared : undefined;
+  const answered = kept ? kept.lanes.filter((l) => l.answered).length : 0;
+  // Warm: every one of the W threads has answered before. Growing: the W − 1 threads have; this
+  // call starts the W-th, which is cold, so this thread still works.
+  const warm = answered >= threads;
+  const id = ++batchIds;
+  let lanes: Lane[] | undefined;
+  const startThreads = (): void => {
+    if (lanes || done === n) return;
+    if (!kept) {
+      if (shared) void stopLanes(shared.lanes);
+      shared = { threads, lanes: [] };
+    }
+    const pool = shared!;
+    const wanted = answered >= threads - 1 && kept ? threads : threads - 1;
+    while (pool.lanes.length < wanted) pool.lanes.push(startLane());
+    lanes = pool.lanes;
+    hold(lanes, true);
+    const batch: Batch = { type: 'batch', id, tasks, next: next.buffer as SharedArrayBuffer };
+    for (const l of lanes) send(l, batch);
+  };
+  calls.set(id, {
+    result: (index, response) => {
+      try {
+        const r = unwrap(response);
+        if (!finished[index]) options.onThreadResult?.(index);
+        finish(index, r);
+      } catch (e) {
+        settle(e);
+      }
+    },
+    fail: (error) => settle(error),
+  });
+  // A failure after this call has ended is nobody's to handle.
+  all.catch(() => undefined);
+  // Threads start when the work left (at this thread's pace, plus earlier calls' work in this
+  // process) would repay them and other processes have left a processor free beside this thread.
+  let decided = false;
+  let since = started;
+  let othersSince = othersMs();
+  let checkAt = started + DECISION_MS;
+  const consider = (): void => {
+    if (decided || lanes) return;
+    const now = performance.now();
+    if (now < checkAt) return;
+    const elapsed = now - started;
+    // With no task finished yet, each one takes longer than the time so far: ask again later.
+    const remaining = (elapsed / Math.max(done, 1)) * (n - done - (done === 0 ? 1 : 0));
+    if (done > 0 && remaining + earlierWorkMs <= MIN_REMAINING_FOR_THREADS_MS) {
+      decided = true;
+      return;
+    }
+    if (threadsPay(remaining + earlierWorkMs, spareProcessors(othersSince, since, now))) startThreads();
+    else {
+      since = now;
+      othersSince = othersMs();
+      checkAt = now + RECHECK_MS;
+    }
+  };
+  if (options.eager || kept) startThreads();
+  const here = async (): Promise<void> => {
+    // While threads work through the tasks this thread waits (warm), or takes its share (cold).
+    for (let i = warm ? n : takeNext(next); i < n; i = takeNext(next)) {
+      const step = options.onStep;
+      finish(i, unwrap(work(tasks[i]!, () => {
+        step?.(i);
+        consider();
+      })));
+      consider();
+      // Let thread results, timers (progress display) and signals in between tasks.
       await new Promise((resolve) => setImmediate(resolve));
     }
   };
-  if (threads <= 1) {
-    const t0 = performance.now();
-    await here();
-    earlierWorkMs += performance.now() - t0;
-    return out;
-  }
-  // Threads start only once this thread has worked for about as long as starting one takes
-  // (loading the engine and warming it up): a search that finishes sooner never pays for them.
-  // A pool already warm from an earlier call in this process is used at once.
-  let pool: Pool | undefined;
-  const startThreads = async (): Promise<void> => {
-    if (done === tasks.length) return;
-    // Loaded only when threads are needed: a one-worker run never pays for it.
-    const { Piscina } = await import('piscina');
-    if (done === tasks.length) return;
-    const p = threadPool(Piscina, threads);
-    pool = p;
-    hold(p, true);
-    const lane = async (): Promise<void> => {
-      for (let i = take(); i >= 0 && done < tasks.length; i = take()) {
-        state[i] = 1;
-        const run = p.run(tasks[i]!);
-        const entry = shared?.pool === p ? shared : undefined;
-        if (entry) {
-          entry.loaded ??= run;
-          entry.inflight.add(run);
-          const forget = (): void => { entry.inflight.delete(run); };
-          run.then(forget, forget);
-        }
-        const response = await run.catch((e: unknown) => (state[i] === 2 ? null : Promise.reject(e)));
-        if (response && entry) entry.answered.add(response.thread);
-        if (response && state[i] !== 2) {
-          options.onThreadResult?.(i);
-          finish(i, unwrap(response));
-        }
-      }
-    };
-    // Two tasks in flight per thread: the next one is already queued when a thread finishes,
-    // instead of waiting for this thread to hand it one.
-    for (let k = 0; k < lanes; k++) lane().catch(settle);
-  };
-  // Threads start when the work left (at this thread's pace, plus earlier calls' work in this
-  // process) would repay them and other processes have left a processor free beside this thread;
-  // while the work left is large and none is free, the question is asked again every RECHECK_MS.
-  const started = performance.now();
-  let timer: ReturnType<typeof setTimeout> | undefined;
-  const decide = (since: number, othersSince: number): void => {
-    timer = undefined;
-    if (done === tasks.length) return;
-    const now = performance.now();
-    const elapsed = now - started;
-    // With no task finished yet, each one takes longer than the time so far.
-    const remaining = (elapsed / Math.max(done, 1)) * (tasks.length - done - (done === 0 ? 1 : 0));
-    if (remaining + earlierWorkMs <= MIN_REMAINING_FOR_THREADS_MS) return;
-    if (threadsPay(remaining + earlierWorkMs, spareProcessors(othersSince, since, now))) startThreads().catch(settle);
-    else {
-      const othersNow = othersMs();
-      timer = setTimeout(() => decide(now, othersNow), RECHECK_MS);
-    }
-  };
-  if (options.eager || kept) timer = setTimeout(() => startThreads().catch(settle), 0);
-  else {
-    const others0 = othersMs();
-    timer = setTimeout(() => decide(started, others0), DECISION_MS);
-  }
   try {
-    here().catch(settle);
-    if (tasks.length > 0) await finished;
+    await here();
+    // Also when this thread has done every task: a thread that failed fails the call.
+    await all;
   } finally {
-    clearTimeout(timer);
+    // A failed call leaves nothing for the threads to take.
+    Atomics.store(next, 0, n);
+    calls.delete(id);
     wake();
-    if (pool) hold(pool, false);
+    if (lanes) hold(lanes, false);
     earlierWorkMs += performance.now() - started;
   }
   return out;

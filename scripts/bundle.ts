@@ -2,8 +2,8 @@
  * Bundles the command line into dist/bin (npm run build): the executable and the pool's worker as
  * two entry points sharing chunks, so a run loads a few files instead of some two hundred modules
  * (measured: `wellsmith --version` 0.52 s from the tsc output, 0.32 s bundled, on the 2-core VM).
- * The native store (better-sqlite3), piscina (it starts its own worker script) and the plotting
- * stack (loaded only by reports) stay in node_modules. The worker lands beside the pool's chunk,
+ * The native store (better-sqlite3) and the plotting stack (loaded only by reports) stay in
+ * node_modules. The worker lands beside the pool's chunk,
  * where engine/pool.ts looks for it.
  */
 import { build } from 'esbuild';
@@ -28,7 +28,7 @@ export async function bundle(outdir: string = BIN_DIR): Promise<void> {
     format: 'esm',
     platform: 'node',
     target: 'node20',
-    external: ['better-sqlite3', 'piscina', 'vega', 'vega-lite'],
+    external: ['better-sqlite3', 'vega', 'vega-lite'],
     // Bundled CommonJS dependencies (yaml) call require() for Node's own modules.
     banner: { js: "import { createRequire as __wellsmithRequire } from 'node:module'; const require = __wellsmithRequire(import.meta.url);" },
     logLevel: 'warning',

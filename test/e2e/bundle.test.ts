@@ -9,12 +9,12 @@ import { readFileSync, rmSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { pathToFileURL } from 'node:url';
-import { Piscina } from 'piscina';
+import { Worker } from 'node:worker_threads';
 import { bundle } from '../../scripts/bundle.js';
 import { cli } from '../../engine/cli/app.js';
 import { designTasks, DEFAULT_DESIGN_OPTIONS } from '../../engine/design/search.js';
 import { loadSpecFile } from '../../engine/input/load.js';
-import work, { type WorkerResponse, type WorkerTask } from '../../engine/worker.js';
+import { work, type Batch, type ThreadMessage, type WorkerTask } from '../../engine/task.js';
 import { ROOT } from '../campaign/helpers.js';
 
 const OUT = `dist/bundle-test-${process.pid}`;
@@ -38,17 +38,32 @@ describe('bundled command', () => {
     expect(r.stdout).toBe(here.stdout);
   });
 
-  it('its worker file runs a search start on a pool thread with the result of this thread', async () => {
+  it('its worker file runs a search start of a batch on a pool thread with the result of this thread', async () => {
     const { spec } = loadSpecFile(join(ROOT, 'runs/pump-976.yaml'));
     const task: WorkerTask = designTasks(spec, { ...DEFAULT_DESIGN_OPTIONS, starts: 2, maxEvaluations: 40 })[1]!;
-    const pool = new Piscina<WorkerTask, WorkerResponse>({ filename: pathToFileURL(join(ROOT, OUT, 'worker.js')).href, minThreads: 1, maxThreads: 1 });
+    const thread = new Worker(join(ROOT, OUT, 'worker.js'));
     try {
-      const { thread, ...there } = await pool.run(task);
+      const answers: ThreadMessage[] = [];
+      const ended = new Promise<void>((resolve, reject) => {
+        thread.on('error', reject);
+        thread.on('message', (m: ThreadMessage) => {
+          answers.push(m);
+          if (m.type === 'idle') resolve();
+        });
+      });
+      const batch: Batch = { type: 'batch', id: 7, tasks: [task], next: new SharedArrayBuffer(4) };
+      thread.postMessage(batch);
+      await ended;
+      expect(answers.map((m) => m.type), 'loaded, answered, ran out of tasks').toEqual(['ready', 'result', 'idle']);
+      const answer = answers[1]!;
+      if (answer.type !== 'result') throw new Error('no result');
+      const { thread: there, ...fromThread } = answer.response;
       const { thread: main, ...here } = work(task);
-      expect(thread, 'id of the answering thread').toBeGreaterThan(main);
-      expect(there).toEqual(here);
+      expect(answer.index).toBe(0);
+      expect(there, 'id of the answering thread').toBeGreaterThan(main);
+      expect(fromThread).toEqual(here);
     } finally {
-      await pool.destroy();
+      await thread.terminate();
     }
   });
 });
