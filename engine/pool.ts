@@ -157,10 +157,10 @@ function send(lane: Lane, batch: Batch): void {
   lane.worker.postMessage(batch);
 }
 
-/** Referenced while a call runs (the process waits for its tasks), unreferenced after. */
-function hold(lanes: readonly Lane[], busy: boolean): void {
-  for (const l of lanes) {
-    if (busy) l.worker.ref();
+/** Threads are referenced while any call runs (the process waits for its tasks), unreferenced after. */
+function hold(): void {
+  for (const l of shared?.lanes ?? []) {
+    if (calls.size > 0) l.worker.ref();
     else l.worker.unref();
   }
 }
@@ -209,8 +209,17 @@ export async function runTasks(tasks: readonly WorkerTask[], options: PoolOption
   const finished = new Uint8Array(n);
   const next = new Int32Array(new SharedArrayBuffer(4));
   let done = 0;
+  let failed = false;
   let settle: (error?: unknown) => void = () => undefined;
-  const all = new Promise<void>((resolve, reject) => { settle = (error) => (error === undefined ? resolve() : reject(error)); });
+  const all = new Promise<void>((resolve, reject) => {
+    settle = (error) => {
+      if (error === undefined) resolve();
+      else {
+        failed = true;
+        reject(error);
+      }
+    };
+  });
   let wake: () => void = () => undefined;
   const finish = (i: number, r: WorkerResult): void => {
     if (finished[i]) return;
@@ -249,7 +258,7 @@ export async function runTasks(tasks: readonly WorkerTask[], options: PoolOption
     const wanted = answered >= threads - 1 && kept ? threads : threads - 1;
     while (pool.lanes.length < wanted) pool.lanes.push(startLane());
     lanes = pool.lanes;
-    hold(lanes, true);
+    hold();
     const batch: Batch = { type: 'batch', id, tasks, next: next.buffer as SharedArrayBuffer };
     for (const l of lanes) send(l, batch);
   };
@@ -294,7 +303,7 @@ export async function runTasks(tasks: readonly WorkerTask[], options: PoolOption
   if (options.eager || kept) startThreads();
   const here = async (): Promise<void> => {
     // While threads work through the tasks this thread waits (warm), or takes its share (cold).
-    for (let i = warm ? n : takeNext(next); i < n; i = takeNext(next)) {
+    for (let i = warm ? n : takeNext(next); i < n && !failed; i = takeNext(next)) {
       const step = options.onStep;
       finish(i, unwrap(work(tasks[i]!, () => {
         step?.(i);
@@ -314,7 +323,7 @@ export async function runTasks(tasks: readonly WorkerTask[], options: PoolOption
     Atomics.store(next, 0, n);
     calls.delete(id);
     wake();
-    if (lanes) hold(lanes, false);
+    hold();
     earlierWorkMs += performance.now() - started;
   }
   return out;
