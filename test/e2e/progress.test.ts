@@ -3,7 +3,7 @@
  * a progress bar appears on a terminal once work has run past the delay (never for a quick one),
  * and sizes beyond the stated maxima are refused at once.
  */
-import { describe, expect, it } from 'vitest';
+import { describe, expect, it, vi } from 'vitest';
 import { mkdtempSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
@@ -46,7 +46,17 @@ describe('runs that never go silent', () => {
 
   it('tolerance with stderr not a terminal logs time-stamped lines once it runs past the delay, the last one at the end', async () => {
     let code = -1;
-    const logged = await captureStderr(async () => { code = (await cli(['tolerance', 'runs/pump-976.yaml', '--samples', '8000', '--workers', '1'])).code; }, false);
+    // The clock runs 25× faster here, so the 2 s delay passes within the run however fast the
+    // machine is (8000 samples took 1.5 s on an idle machine and logged nothing).
+    const real = Date.now.bind(Date);
+    const t0 = real();
+    const clock = vi.spyOn(Date, 'now').mockImplementation(() => t0 + (real() - t0) * 25);
+    let logged: string;
+    try {
+      logged = await captureStderr(async () => { code = (await cli(['tolerance', 'runs/pump-976.yaml', '--samples', '8000', '--workers', '1'])).code; }, false);
+    } finally {
+      clock.mockRestore();
+    }
     expect(code).toBe(0);
     const lines = logged.trim().split('\n');
     expect(lines.length, logged).toBeGreaterThan(0);
