@@ -230,14 +230,18 @@ export async function runTasks(tasks: readonly WorkerTask[], options: PoolOption
     wake();
     if (done === n) settle();
   };
+  /** Runs task i on this thread; `afterStep` is called after each of its steps, after onStep. */
+  const runHere = async (i: number, afterStep?: () => void): Promise<void> => {
+    const step = options.onStep;
+    const hook = step ? (afterStep ? () => { step(i); afterStep(); } : () => step(i)) : afterStep;
+    finish(i, unwrap(work(tasks[i]!, hook)));
+    // Let thread results, timers (progress display) and signals in between tasks.
+    await new Promise((resolve) => setImmediate(resolve));
+  };
   const threads = Math.min(options.workers, n);
   const started = performance.now();
   if (threads <= 1) {
-    for (let i = 0; i < n; i++) {
-      const step = options.onStep;
-      finish(i, unwrap(work(tasks[i]!, step && (() => step(i)))));
-      await new Promise((resolve) => setImmediate(resolve));
-    }
+    for (let i = 0; i < n; i++) await runHere(i);
     earlierWorkMs += performance.now() - started;
     return out;
   }
@@ -304,14 +308,8 @@ export async function runTasks(tasks: readonly WorkerTask[], options: PoolOption
   const here = async (): Promise<void> => {
     // While threads work through the tasks this thread waits (warm), or takes its share (cold).
     for (let i = warm ? n : takeNext(next); i < n && !failed; i = takeNext(next)) {
-      const step = options.onStep;
-      finish(i, unwrap(work(tasks[i]!, () => {
-        step?.(i);
-        consider();
-      })));
+      await runHere(i, consider);
       consider();
-      // Let thread results, timers (progress display) and signals in between tasks.
-      await new Promise((resolve) => setImmediate(resolve));
     }
   };
   try {
