@@ -3,7 +3,7 @@
  * a progress bar appears on a terminal once work has run past the delay (never for a quick one),
  * and sizes beyond the stated maxima are refused at once.
  */
-import { describe, expect, it, vi } from 'vitest';
+import { describe, expect, it } from 'vitest';
 import { mkdtempSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
@@ -11,7 +11,7 @@ import { cli } from '../../engine/cli/app.js';
 import { durationText, noteLongWork, progressBar } from '../../engine/cli/progress.js';
 import { MAX_LAYERS } from '../../engine/structure.js';
 import { spawnCli } from '../campaign/helpers.js';
-import { captureStderr, onTerminal } from './terminal.js';
+import { captureStderr, onTerminal, withFastClock } from './terminal.js';
 
 describe('runs that never go silent', () => {
   it('the progress bar draws on a terminal once the work passes the delay, and not for quick work', async () => {
@@ -39,24 +39,16 @@ describe('runs that never go silent', () => {
   it('report --tolerance draws the bar of its Monte Carlo samples on a terminal once they run past the delay', async () => {
     const out = join(mkdtempSync(join(tmpdir(), 'ws-progress-')), 'r.html');
     let code = -1;
-    const drawn = await onTerminal(async () => { code = (await cli(['report', 'runs/pump-976.yaml', '--tolerance', '--samples', '8000', '--workers', '1', '--out', out])).code; });
+    // On a fast clock: 8000 samples can end within the real 2 s delay and draw nothing.
+    const drawn = await withFastClock(() => onTerminal(async () => { code = (await cli(['report', 'runs/pump-976.yaml', '--tolerance', '--samples', '8000', '--workers', '1', '--out', out])).code; }));
     expect(code).toBe(0);
     expect(drawn).toMatch(/tolerance \[.*\] \d+\/\d+ .* sample batches/);
   }, 60_000);
 
   it('tolerance with stderr not a terminal logs time-stamped lines once it runs past the delay, the last one at the end', async () => {
     let code = -1;
-    // The clock runs 25× faster here, so the 2 s delay passes within the run however fast the
-    // machine is (8000 samples took 1.5 s on an idle machine and logged nothing).
-    const real = Date.now.bind(Date);
-    const t0 = real();
-    const clock = vi.spyOn(Date, 'now').mockImplementation(() => t0 + (real() - t0) * 25);
-    let logged: string;
-    try {
-      logged = await captureStderr(async () => { code = (await cli(['tolerance', 'runs/pump-976.yaml', '--samples', '8000', '--workers', '1'])).code; }, false);
-    } finally {
-      clock.mockRestore();
-    }
+    // On a fast clock: 8000 samples took 1.5 s on an idle machine and logged nothing.
+    const logged = await withFastClock(() => captureStderr(async () => { code = (await cli(['tolerance', 'runs/pump-976.yaml', '--samples', '8000', '--workers', '1'])).code; }, false));
     expect(code).toBe(0);
     const lines = logged.trim().split('\n');
     expect(lines.length, logged).toBeGreaterThan(0);

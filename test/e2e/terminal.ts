@@ -1,3 +1,5 @@
+import { vi } from 'vitest';
+
 /** Runs f with stderr taken for a terminal (isTTY) or a pipe and returns what it wrote there. */
 export async function captureStderr(f: () => Promise<void> | void, isTTY: boolean): Promise<string> {
   const chunks: string[] = [];
@@ -16,3 +18,18 @@ export async function captureStderr(f: () => Promise<void> | void, isTTY: boolea
 
 /** Runs f with stderr taken for a terminal and returns what it wrote there. */
 export const onTerminal = (f: () => Promise<void> | void): Promise<string> => captureStderr(f, true);
+
+/**
+ * Runs f with Date.now running `speed` times faster than real time, so a progress display's 2 s
+ * delay passes within work that may take well under 2 s on a fast moment of the machine.
+ */
+export async function withFastClock<T>(f: () => Promise<T>, speed = 25): Promise<T> {
+  const real = Date.now.bind(Date);
+  const t0 = real();
+  const clock = vi.spyOn(Date, 'now').mockImplementation(() => t0 + (real() - t0) * speed);
+  try {
+    return await f();
+  } finally {
+    clock.mockRestore();
+  }
+}
